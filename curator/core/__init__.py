@@ -1,0 +1,1 @@
+"""The engine: catalogue, profile, index, similarity, suggestions and explanations. No Qt here."""

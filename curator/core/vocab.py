@@ -44,7 +44,8 @@ RDFS = Namespace(
 OWL = Namespace("http://www.w3.org/2002/07/owl#", "Class ObjectProperty sameAs Thing")
 SKOS = Namespace(
     "http://www.w3.org/2004/02/skos/core#",
-    "Concept ConceptScheme prefLabel altLabel broader narrower inScheme topConceptOf related",
+    "Concept ConceptScheme prefLabel altLabel broader narrower inScheme topConceptOf related "
+    "hasTopConcept",
 )
 SCHEMA = Namespace(
     "https://schema.org/",
@@ -52,7 +53,9 @@ SCHEMA = Namespace(
     "about genre keywords contentLocation locationCreated spatialCoverage datePublished "
     "dateCreated copyrightYear inLanguage audience typicalAgeRange isBasedOn sequel isPartOf "
     "hasPart workExample exampleOfWork translationOfWork description CreativeWork Book Movie "
-    "Audiobook Person Organization Place Audience ItemList ListItem position item",
+    "Audiobook Person Organization Place Audience ItemList ListItem position item "
+    "CreativeWorkSeries BookSeries MovieSeries Collection containedInPlace sameAs url "
+    "identifier numberOfItems itemListElement itemListOrder",
 )
 SCHEMA_HTTP = SCHEMA.rebased("http://schema.org/")
 DCTERMS = Namespace(

@@ -1,0 +1,1 @@
+"""The ``curator`` command: a thin layer over :mod:`curator.services`."""

@@ -1,0 +1,3 @@
+from curator.cli.main import main
+
+raise SystemExit(main())

@@ -1,0 +1,203 @@
+"""``curator``: suggest and profile from the command line; exceptions become exit codes."""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+import textwrap
+from collections.abc import Sequence
+from pathlib import Path
+
+from curator.core.errors import CuratorError
+from curator.core.suggest import DEFAULT_LAMBDA, MODES, SuggestionResult, SuggestSettings
+from curator.services.profiles import profile_lines, profile_to_json
+from curator.services.suggestions import SuggestRequest, result_to_json, suggest
+from curator.services.workspace import Workspace, open_catalogue
+
+EXIT_OK = 0
+EXIT_INTERNAL = 1
+EXIT_BAD_INPUT = 2
+WIDTH = 100
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse, but usage errors say what to do in one paragraph and exit 2."""
+
+    def error(self, message: str) -> None:  # type: ignore[override]
+        self.print_usage(sys.stderr)
+        sys.stderr.write(f"curator: {message}\n")
+        raise SystemExit(EXIT_BAD_INPUT)
+
+
+def _catalogue_options(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument(
+        "--catalogue",
+        "-c",
+        action="append",
+        type=Path,
+        metavar="PATH",
+        help="an RDF file or folder (repeatable); default: the bundled demo collection",
+    )
+    parser.add_argument("--format", dest="format_name", help="RDF syntax of the files")
+    parser.add_argument("--profile", type=Path, help="a saved profile (TOML) to use as it is")
+    parser.add_argument(
+        "--language",
+        action="append",
+        dest="languages",
+        metavar="CODE",
+        help="label language, most wanted first (repeatable); default from the environment",
+    )
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="curator",
+        description="Build themed reading and viewing lists from a linked-data catalogue.",
+    )
+    parser.add_argument("--debug", action="store_true", help="show tracebacks of internal errors")
+    commands = parser.add_subparsers(dest="command", parser_class=_Parser)
+
+    s = commands.add_parser("suggest", help="suggest works that fit the seeds")
+    _catalogue_options(s)
+    s.add_argument(
+        "--seed",
+        action="append",
+        required=True,
+        metavar="IRI_OR_TITLE",
+        help="a work to start from, by IRI or title (repeatable)",
+    )
+    s.add_argument("--type", action="append", dest="kinds", metavar="CLASS",
+                   help="only works of this kind (IRI or name; repeatable)")
+    s.add_argument("--limit", type=int, default=10, help="how many suggestions (default 10)")
+    s.add_argument("--lambda", type=float, dest="lam", default=DEFAULT_LAMBDA,
+                   help=f"1 = most relevant only, lower = more varied (default {DEFAULT_LAMBDA})")
+    s.add_argument("--mode", choices=MODES, default="blend", help="how relevance is measured")
+    s.add_argument("--property", dest="shared_property", metavar="IRI",
+                   help="the property whose values shared-count mode counts")
+    s.add_argument("--year-from", type=int, help="only works from this year on")
+    s.add_argument("--year-to", type=int, help="only works up to this year")
+    s.add_argument("--in-language", action="append", dest="filter_languages", metavar="LANG",
+                   help="only works in this language (code or name; repeatable)")
+    s.add_argument("--on-list", action="append", default=[], metavar="IRI_OR_TITLE",
+                   help="a work already on the list (never suggested; counts as redundancy)")
+    s.add_argument("--dismiss", action="append", default=[], metavar="IRI_OR_TITLE",
+                   help="a work ruled out (never suggested; pushes down what resembles it)")
+    s.add_argument("--json", action="store_true", help="print JSON instead of a table")
+
+    p = commands.add_parser("profile", help="show how the catalogue is read")
+    _catalogue_options(p)
+    p.add_argument("--json", action="store_true", help="print JSON instead of text")
+    p.add_argument("--save", type=Path, metavar="FILE", help="write the profile as TOML")
+    return parser
+
+
+def _open(args: argparse.Namespace) -> Workspace:
+    return open_catalogue(
+        args.catalogue or None,
+        profile_path=args.profile,
+        languages=args.languages,
+        format_name=args.format_name,
+    )
+
+
+def _run_suggest(args: argparse.Namespace) -> int:
+    settings = SuggestSettings(
+        mode=args.mode,
+        lam=args.lam,
+        limit=args.limit,
+        kinds=tuple(args.kinds or ()),
+        year_from=args.year_from,
+        year_to=args.year_to,
+        languages=tuple(args.filter_languages or ()),
+        shared_property=args.shared_property,
+    ).checked()
+    workspace = _open(args)
+    result = suggest(
+        workspace,
+        SuggestRequest(
+            seeds=tuple(args.seed),
+            settings=settings,
+            list_items=tuple(args.on_list),
+            dismissed=tuple(args.dismiss),
+        ),
+    )
+    if args.json:
+        json.dump(result_to_json(workspace.index, result), sys.stdout, ensure_ascii=False, indent=2)
+        sys.stdout.write("\n")
+    else:
+        sys.stdout.write("\n".join(suggestion_table(workspace, result)) + "\n")
+    return EXIT_OK
+
+
+def suggestion_table(workspace: Workspace, result: SuggestionResult) -> list[str]:
+    """The suggestions as a table no wider than 100 columns, each with its rationale below."""
+    index = workspace.index
+    finder = workspace.finder
+
+    def seed_line(record: object) -> str:
+        position = index.position[record.iri]  # type: ignore[attr-defined]
+        return f"  {record.label} ({finder.describe(position)})"  # type: ignore[attr-defined]
+
+    lines = ["Seeds:", *(seed_line(r) for r in result.seeds), ""]
+    counting = result.settings.mode == "shared-count"
+    score_name = "shared" if counting else "fit"
+    header = f"{'#':>2}  {'Title':<36} {'Creator':<22} {'Year':>4}  {'Kind':<16} {score_name:>6}"
+    lines.append(header)
+    lines.append("-" * WIDTH)
+    for number, s in enumerate(result.suggestions, start=1):
+        record = s.record
+        creator = ", ".join(index.label(c) for c in record.creators[:1]) or "—"
+        kind = index.label(record.kinds[0]) if record.kinds else "—"
+        year = str(record.year) if record.year is not None else "—"
+        score = f"{s.score:.0f}" if counting else f"{s.relevance:.2f}"
+        lines.append(
+            f"{number:>2}  {_fit(record.label, 36)} {_fit(creator, 22)} {year:>4}  "
+            f"{_fit(kind, 16)} {score:>6}"
+        )
+        lines += textwrap.wrap(s.rationale, WIDTH, initial_indent="    ", subsequent_indent="    ")
+    lines += [f"Note: {n}" for n in result.notes]
+    return lines
+
+
+def _fit(text: str, width: int) -> str:
+    return (text if len(text) <= width else text[: width - 1] + "…").ljust(width)
+
+
+def _run_profile(args: argparse.Namespace) -> int:
+    workspace = _open(args)
+    if args.save:
+        workspace.profile.save(args.save)
+    if args.json:
+        json.dump(profile_to_json(workspace), sys.stdout, ensure_ascii=False, indent=2)
+        sys.stdout.write("\n")
+    else:
+        sys.stdout.write("\n".join(profile_lines(workspace, WIDTH)) + "\n")
+        if args.save:
+            sys.stdout.write(f"\nProfile saved to {args.save}\n")
+    return EXIT_OK
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return EXIT_OK
+    handlers = {"suggest": _run_suggest, "profile": _run_profile}
+    try:
+        return handlers[args.command](args)
+    except CuratorError as exc:
+        sys.stderr.write(f"curator: {exc}\n")
+        return EXIT_BAD_INPUT
+    except KeyboardInterrupt:
+        sys.stderr.write("curator: interrupted\n")
+        return 130
+    except Exception as exc:
+        if args.debug:
+            raise
+        sys.stderr.write(
+            f"curator: internal error ({type(exc).__name__}: {exc}). "
+            "Run again with --debug for details.\n"
+        )
+        return EXIT_INTERNAL

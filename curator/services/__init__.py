@@ -1,0 +1,1 @@
+"""The API both front ends share: open a catalogue, suggest, report. No Qt here."""

@@ -64,7 +64,7 @@ XSD = "http://www.w3.org/2001/XMLSchema#"
 RDF_TYPE = "<http://www.w3.org/1999/02/22-rdf-syntax-ns#type>"
 
 #: Zipf exponent for theme popularity.
-THEME_ZIPF_EXPONENT = 1.1
+THEME_ZIPF_EXPONENT = 0.9
 #: Milder skew for how many works a creator gets (beyond their first).
 CREATOR_ZIPF_EXPONENT = 0.6
 #: Share of a work's themes that come from its author's signature set.

@@ -8,6 +8,7 @@ parsed, so a broken file never replaces a good catalogue.
 from __future__ import annotations
 
 import re
+import xml.parsers.expat
 from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
 from pathlib import Path
@@ -183,7 +184,10 @@ class Catalogue:
             try:
                 store.load(data, format=fmt, base_iri=path.resolve().as_uri())
             except SyntaxError as exc:
-                raise _syntax_error(path, exc) from None
+                error = _syntax_error(path, exc)
+                if error.lineno is None and fmt == ox.RdfFormat.RDF_XML:
+                    error = _xml_position(path, data, error)
+                raise error from None
             except (ValueError, OSError) as exc:
                 raise CatalogueError(f"{path}: {exc}") from None
             sources.append(SourceFile(path, fmt.name, len(data), len(store) - before))
@@ -220,9 +224,25 @@ class Catalogue:
             yield tuple(solution[v] for v in variables)
 
 
-_POSITION_PREFIX = re.compile(
-    r"^Parser error (?:at|between) line \d+ column \d+(?: and line \d+ column \d+)?: "
-)
+_POSITION_PREFIX = re.compile(r"^Parser error (?:at|between) line [\d\w ]*?: ")
+
+
+def _xml_position(path: Path, data: bytes, error: CatalogueSyntaxError) -> CatalogueSyntaxError:
+    """Where an RDF/XML file stops being well-formed XML, since the RDF parser does not say.
+
+    expat is used without external entity loading, so this reads nothing but ``data``.
+    """
+    parser = xml.parsers.expat.ParserCreate()
+    try:
+        parser.Parse(data, True)
+    except xml.parsers.expat.ExpatError as exc:
+        return CatalogueSyntaxError(
+            error.detail,
+            filename=str(path),
+            lineno=exc.lineno,
+            offset=exc.offset + 1,
+        )
+    return error
 
 
 def _syntax_error(path: Path, exc: SyntaxError) -> CatalogueSyntaxError:

@@ -11,7 +11,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-import numpy as np
+import scipy.sparse as sp
 
 from curator.core.index import LITERAL_PREFIX, Edge, Index
 from curator.core.labels import join_words
@@ -68,31 +68,27 @@ class Explainer:
         self.index = index
         self.context = list(dict.fromkeys([*seeds, *list_items]))
         self.seeds = list(seeds)
-        self.context_iris = [index.works[i] for i in self.context]
-        rows = index.vectors[self.context] if self.context else None
-        self._context_rows = rows
-        self._context_max = (
-            np.asarray(rows.max(axis=0).todense()).ravel() if rows is not None else None
-        )
+        # Rows as dictionaries: explanations touch a handful of columns of a few rows, where
+        # dictionary look-ups beat sparse indexing by far.
+        self._weights = [_row_dict(index.vectors, i) for i in self.context]
+        self._direct = [set(_row_dict(index.direct, i)) for i in self.context]
 
     # ----- shared themes ---------------------------------------------------------------
 
     def shared_themes(self, position: int) -> list[SharedTheme]:
-        if self._context_rows is None:
+        if not self.context:
             return []
         index = self.index
-        row = index.vectors[position]
-        direct_row = set(index.direct[position].indices)
+        row = _row_dict(index.vectors, position)
+        direct_row = set(_row_dict(index.direct, position))
         found: list[SharedTheme] = []
-        for column, value in zip(row.indices, row.data, strict=True):
-            peak = self._context_max[column]
-            if peak <= 0:
+        for column, value in row.items():
+            holders = [h for h, weights in enumerate(self._weights) if column in weights]
+            if not holders:
                 continue
-            holders = self._context_rows[:, column].nonzero()[0]
+            peak = max(self._weights[h][column] for h in holders)
+            direct_holders = [h for h in holders if column in self._direct[h]]
             feature = index.features[column]
-            direct_holders = [
-                h for h in holders if index.direct[self.context[h], column] > 0
-            ]
             found.append(
                 SharedTheme(
                     iri=feature.value if not feature.value.startswith(LITERAL_PREFIX) else "",
@@ -239,6 +235,12 @@ class Explainer:
             return "Close to the seeds through a longer chain of shared themes and creators."
         sentence = ", and ".join(clauses) if len(clauses) == 2 else clauses[0]
         return sentence[0].upper() + sentence[1:] + "."
+
+
+def _row_dict(matrix: sp.csr_matrix, row: int) -> dict[int, float]:
+    start, end = matrix.indptr[row], matrix.indptr[row + 1]
+    columns = matrix.indices[start:end].tolist()
+    return dict(zip(columns, matrix.data[start:end].tolist(), strict=True))
 
 
 def _verb(link_label: str) -> str:

@@ -14,6 +14,9 @@ import scipy.sparse as sp
 #: Damping of the random walk: the probability of following an edge rather than restarting.
 #: 0.85 is the value of Brin & Page (1998) and networkx's default.
 PAGERANK_ALPHA = 0.85
+#: Residual per unit of degree at which forward push stops. Measured on the synthetic
+#: catalogues (benchmarks/): the top 20 works agree with the exact power iteration.
+PUSH_EPSILON = 1e-6
 
 
 def smooth_idf(document_frequency: np.ndarray, n_documents: int) -> np.ndarray:
@@ -129,28 +132,32 @@ def personalized_pagerank_push(
     personalization: Mapping[int, float] | np.ndarray,
     *,
     alpha: float = PAGERANK_ALPHA,
-    epsilon: float = 1e-7,
-    max_rounds: int = 200,
+    epsilon: float = PUSH_EPSILON,
+    max_rounds: int = 400,
+    degree: np.ndarray | None = None,
 ) -> np.ndarray:
     """Personalized PageRank approximated by forward push (Andersen, Chung & Lang 2006).
 
     Keeps an estimate ``x`` and a residual ``r`` (all mass starts in ``r`` at the seeds); every
     node whose residual exceeds ``epsilon`` times its weighted degree keeps ``1 - alpha`` of it
-    and spreads the rest to its neighbours. Only nodes near the seeds are touched, which is what
-    makes a query fast on a large catalogue. We push all such nodes at once per round (a
-    synchronous variant, same invariant). The error at each node ``v`` is then at most
-    ``epsilon * degree(v)`` plus what dangling nodes hold, and the total missing mass equals
-    the residual left, which the tests bound against :func:`personalized_pagerank`.
+    and spreads the rest to its neighbours in proportion to edge weight. Only nodes near the
+    seeds are touched, which is what makes a query fast on a large catalogue. We push all such
+    nodes at once per round (a synchronous variant with the same invariant
+    ``pi = x + sum_u r(u) pi_u``), so the result is never more than the exact value and falls
+    short by at most the residual left, ``epsilon`` times the weighted degree per node.
+    ``adjacency`` must be symmetric (an undirected graph), as the item-entity graph is.
     """
     adjacency = sp.csr_matrix(adjacency, dtype=np.float64)
     n = adjacency.shape[0]
-    degree = np.asarray(adjacency.sum(axis=1)).ravel()
+    if degree is None:
+        degree = np.asarray(adjacency.sum(axis=1)).ravel()
+    indptr, indices, weights = adjacency.indptr, adjacency.indices, adjacency.data
     r = _restart_vector(n, personalization)
     x = np.zeros(n)
     dangling = degree == 0.0
     if dangling.any():
-        # A walker there can only restart; counting its mass as kept is the usual convention.
-        x[dangling & (r > 0)] += r[dangling & (r > 0)]
+        # A walker there can only restart: its mass stays where it is.
+        x[dangling] += r[dangling]
         r[dangling] = 0.0
     threshold = epsilon * degree
     for _ in range(max_rounds):
@@ -160,11 +167,14 @@ def personalized_pagerank_push(
         mass = r[active]
         x[active] += (1.0 - alpha) * mass
         r[active] = 0.0
-        share = alpha * mass / degree[active]
-        spread = adjacency[active].T @ share
-        r += np.asarray(spread).ravel()
-        stuck = dangling & (r > 0)
-        if stuck.any():
-            x[stuck] += r[stuck]
-            r[stuck] = 0.0
+        starts = indptr[active]
+        counts = indptr[active + 1] - starts
+        total = int(counts.sum())
+        if total == 0:
+            continue
+        # Positions of every active node's neighbours in the CSR arrays, gathered at once.
+        offsets = np.repeat(starts - np.concatenate(([0], np.cumsum(counts)[:-1])), counts)
+        slots = np.arange(total) + offsets
+        share = np.repeat(alpha * mass / degree[active], counts) * weights[slots]
+        r += np.bincount(indices[slots], weights=share, minlength=n)
     return x

@@ -113,14 +113,15 @@ class Suggester:
     def __init__(self, index: Index) -> None:
         self.index = index
         self._incidence: dict[str, sp.csr_matrix] = {}
+        self._degree = np.asarray(index.graph.sum(axis=1)).ravel()
 
     # ----- relevance -------------------------------------------------------------------
 
     def content_scores(self, seeds: Sequence[int]) -> np.ndarray:
         """Mean cosine similarity of every work to the seeds (TF-IDF vectors)."""
         vectors = self.index.vectors
-        centroid = sp.csr_matrix(vectors[list(seeds)].mean(axis=0))
-        return np.clip(np.asarray((vectors @ centroid.T).todense()).ravel(), 0.0, 1.0)
+        centroid = np.asarray(vectors[list(seeds)].mean(axis=0)).ravel()
+        return np.clip(vectors @ centroid, 0.0, 1.0)
 
     def graph_scores(self, seeds: Sequence[int], *, exact: bool = False) -> np.ndarray:
         """Personalized PageRank mass of every work, restarting uniformly at the seeds."""
@@ -132,7 +133,9 @@ class Suggester:
         if exact:
             ranks = personalized_pagerank(graph, personalization, alpha=PAGERANK_ALPHA)
         else:
-            ranks = personalized_pagerank_push(graph, personalization, alpha=PAGERANK_ALPHA)
+            ranks = personalized_pagerank_push(
+                graph, personalization, alpha=PAGERANK_ALPHA, degree=self._degree
+            )
         return ranks[: self.index.size]
 
     def set_incidence(self, prop: str, incidence: sp.csr_matrix) -> None:

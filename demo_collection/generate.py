@@ -12,11 +12,12 @@ Usage:  python demo_collection/generate.py [OUTPUT_DIR]   (default: this folder)
 from __future__ import annotations
 
 import os
+import random
 import re
 import sys
-import random
 import unicodedata
 from collections import Counter, defaultdict
+from typing import ClassVar
 
 SEED = 20261201
 LAST_YEAR = 2025
@@ -573,7 +574,7 @@ class Generator:
         self.slugs_taken = set()
 
     # ---------------- people ----------------
-    ROLE_PLAN = [
+    ROLE_PLAN: ClassVar[list[tuple[str, str, int]]] = [
         ("writer", "en", 36), ("writer", "fr", 5), ("writer", "de", 5), ("writer", "es", 4),
         ("writer", "it", 4), ("writer", "nl", 4),
         ("graphic", "en", 8), ("graphic", "fr", 2), ("graphic", "nl", 1), ("graphic", "it", 1),
@@ -584,7 +585,7 @@ class Generator:
         ("narrator", "en", 9), ("narrator", "fr", 1), ("narrator", "de", 1), ("narrator", "es", 1),
         ("narrator", "it", 1),
     ]
-    START_DECADES = {
+    START_DECADES: ClassVar[dict[str, tuple[list[int], list[float]]]] = {
         "writer": ([1850, 1860, 1870, 1880, 1890, 1900, 1910, 1920, 1930, 1940, 1950, 1960, 1970, 1980,
                     1990, 2000],
                    [1, 1, 1, 1, 1, 1.1, 1.1, 1.1, 1.2, 1.2, 1.4, 1.4, 1.5, 1.5, 1.5, 1.5]),
@@ -645,14 +646,11 @@ class Generator:
                     p["birth"] = p["start"] - rng.randint(22, 38)
                 # home place
                 regions = REGIONS_OF_LANG[lang]
-                if lang == "en":
-                    region = rng.choices(regions, [5, 2, 2])[0]
-                else:
-                    region = regions[0]
+                region = rng.choices(regions, [5, 2, 2])[0] if lang == "en" else regions[0]
                 leaves = LEAVES_OF_REGION[region]
                 weights = [3 if s in ("hollinmere", "tallowgate", "ferrow-quay", "brindlecross", "sallowmarket")
                            else 1 for s in leaves]
-                leaves_w = [(s, w) for s, w in zip(leaves, weights) if s != "river-hollin"]
+                leaves_w = [(s, w) for s, w in zip(leaves, weights, strict=False) if s != "river-hollin"]
                 p["home"] = rng.choices([s for s, _ in leaves_w], [w for _, w in leaves_w])[0]
                 # kinds
                 if role == "writer":
@@ -675,10 +673,7 @@ class Generator:
             nsig = max(1, min(len(favs), k - extras))
             chosen = rng.sample(favs, nsig)
         while len(chosen) < k:
-            if rng.random() < 0.5:
-                pool = THIRDS_OF_TOP[TOP_OF[rng.choice(chosen)]]
-            else:
-                pool = ALL_THIRDS
+            pool = THIRDS_OF_TOP[TOP_OF[rng.choice(chosen)]] if rng.random() < 0.5 else ALL_THIRDS
             pool = [t for t in pool if t not in chosen and not (audience == "children" and THIRD[t]["adult"])]
             chosen.append(rng.choices(pool, [THIRD[t]["pop"] for t in pool])[0])
         if rng.random() < 0.17:

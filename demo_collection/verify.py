@@ -120,7 +120,7 @@ def main(argv):
     print("distinct themes used per level", dict(sorted(used_by_level.items())),
           "; assignments per level", dict(sorted(assign_by_level.items())))
     thirds = sorted(((n, short(t)) for t, n in theme_count.items() if level.get(t) == 3), reverse=True)
-    unused = [short(c) for c, l in level.items() if l == 3 and c not in theme_count]
+    unused = [short(c) for c, lvl in level.items() if lvl == 3 and c not in theme_count]
     print("third-level theme frequency (most common first):")
     print("   ", ", ".join(f"{t} {n}" for n, t in thirds))
     print("    unused third-level:", unused or "none")
@@ -158,7 +158,7 @@ def main(argv):
 
     def label(w):
         f = facts[w]
-        en = [n.value for n in f[S + "name"] if n.language == "en"][0]
+        en = next(n.value for n in f[S + "name"] if n.language == "en")
         who = (f[S + "author"] or f[S + "director"] or f[S + "readBy"])[0].value
         kind = short(next(t.value for t in f[RDF_TYPE] if t.value.startswith(HM)))
         return f"{en} [{kind}, {f[S + 'datePublished'][0].value}, {f[S + 'inLanguage'][0].value}, {short(who)}]"

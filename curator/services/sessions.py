@@ -1,0 +1,115 @@
+"""Sessions as the front ends use them: suggestions for a session, entries from suggestions,
+and the recovery file that autosave writes and a restart offers back."""
+
+from __future__ import annotations
+
+import contextlib
+import os
+import sys
+from dataclasses import dataclass
+from pathlib import Path
+
+from curator.core.session import ListEntry, ListSettings, Session, SessionError
+from curator.core.suggest import Suggestion, SuggestionResult, SuggestSettings
+from curator.services.workspace import Workspace
+
+
+def settings_for(list_settings: ListSettings, limit: int = 20) -> SuggestSettings:
+    return SuggestSettings(
+        mode=list_settings.mode,  # type: ignore[arg-type]
+        lam=list_settings.lam,
+        limit=limit,
+        kinds=list_settings.kinds,
+        year_from=list_settings.year_from,
+        year_to=list_settings.year_to,
+        languages=list_settings.languages,
+    )
+
+
+@dataclass(frozen=True)
+class SessionSuggestions:
+    result: SuggestionResult | None
+    #: IRIs of the session that this catalogue does not hold (kept in the session, skipped here)
+    missing: tuple[str, ...]
+
+
+def suggest_for_session(
+    workspace: Workspace, session: Session, limit: int = 20
+) -> SessionSuggestions:
+    """Suggestions for the session's seeds, list and dismissals in this catalogue.
+
+    Raises:
+        SettingsError: the session's settings are out of range.
+    """
+    position = workspace.index.position
+    missing = tuple(
+        iri
+        for iri in [*session.seeds, *session.entry_iris, *session.dismissed]
+        if iri not in position
+    )
+    seeds = [position[i] for i in session.seeds if i in position]
+    if not seeds:
+        return SessionSuggestions(None, missing)
+    result = workspace.suggester.suggest(
+        seeds,
+        settings_for(session.settings, limit),
+        list_items=[position[i] for i in session.entry_iris if i in position],
+        dismissed=[position[i] for i in session.dismissed if i in position],
+    )
+    return SessionSuggestions(result, missing)
+
+
+def entry_from(suggestion: Suggestion) -> ListEntry:
+    """A list entry for an accepted suggestion, its rationale taken from the explanation."""
+    return ListEntry(
+        iri=suggestion.iri, label=suggestion.record.label, rationale=suggestion.rationale
+    )
+
+
+def entry_for_work(workspace: Workspace, iri: str) -> ListEntry:
+    """A list entry for a work added by hand (from browsing or search)."""
+    record = workspace.index.record(iri)
+    return ListEntry(iri=iri, label=record.label)
+
+
+def state_folder() -> Path:
+    """Where curator keeps recovery files: the platform's user state or data folder."""
+    override = os.environ.get("CURATOR_STATE_DIR")
+    if override:
+        return Path(override)
+    if sys.platform.startswith("win"):
+        base = Path(os.environ.get("LOCALAPPDATA", Path.home() / "AppData" / "Local"))
+    elif sys.platform == "darwin":
+        base = Path.home() / "Library" / "Application Support"
+    else:
+        base = Path(os.environ.get("XDG_STATE_HOME", Path.home() / ".local" / "state"))
+    return base / "curator"
+
+
+def recovery_path() -> Path:
+    return state_folder() / "recovery.curator.json"
+
+
+def write_recovery(session: Session) -> Path:
+    """Autosave: write the session to the recovery file (atomically)."""
+    path = recovery_path()
+    path.parent.mkdir(parents=True, exist_ok=True)
+    session.save(path)
+    return path
+
+
+def read_recovery() -> Session | None:
+    """The session left by a run that did not end cleanly, if there is a readable one."""
+    path = recovery_path()
+    if not path.exists():
+        return None
+    try:
+        return Session.load(path)
+    except SessionError:
+        return None
+
+
+def clear_recovery() -> None:
+    """Called on a clean exit or after the curator has decided about a recovered session."""
+    with contextlib.suppress(FileNotFoundError):
+        recovery_path().unlink()

@@ -73,11 +73,12 @@ def fold(text: str) -> str:
     """Text folded for matching: accents removed, case folded, punctuation as spaces.
 
     >>> fold("  L'Été  des Âmes! ")
-    'l ete des ames'
+    'lete des ames'
     """
     decomposed = unicodedata.normalize("NFKD", text)
     stripped = "".join(ch for ch in decomposed if not unicodedata.combining(ch))
     stripped = stripped.casefold()
+    stripped = re.sub(r"['’ʼ`]", "", stripped)
     stripped = re.sub(r"[^\w]+", " ", stripped)
     return " ".join(stripped.split())
 

@@ -153,9 +153,9 @@ class Explainer:
                     f"{quote(index.label(target))}"
                 )
                 if edge.source == creator:
-                    text = f"{mine} was {_verb(link)} {other_text}"
+                    text = f"{mine} {_verb(link)} {other_text}"
                 else:
-                    text = f"{other_text}, was {_verb(link)} {mine}"
+                    text = f"{other_text}, {_verb(link)} {mine}"
                 steps = (Edge(work, path, creator), edge, Edge(target, theirs[other], other))
                 return ConnectingPath(steps, text, target)
         return None
@@ -244,8 +244,13 @@ def _row_dict(matrix: sp.csr_matrix, row: int) -> dict[int, float]:
 
 
 def _verb(link_label: str) -> str:
-    """'influenced by' stays; 'collaborated with' becomes 'a collaborator of'-like wording."""
-    return link_label if link_label.endswith(("by", "of", "with", "to")) else f"{link_label} of"
+    """A link's label as a verb: 'influenced by' is passive ('was influenced by'), 'collaborated
+    with' is already active, and a bare noun ('teacher') becomes 'was teacher of'."""
+    if link_label.endswith(" by"):
+        return f"was {link_label}"
+    if link_label.endswith((" with", " to", " of")):
+        return link_label
+    return f"was {link_label} of"
 
 
 def _drop_redundant_broader(themes: list[SharedTheme]) -> list[SharedTheme]:

@@ -9,6 +9,7 @@ import textwrap
 from collections.abc import Sequence
 from pathlib import Path
 
+from curator.cli import publish_commands
 from curator.core.errors import CuratorError
 from curator.core.suggest import DEFAULT_LAMBDA, MODES, SuggestionResult, SuggestSettings
 from curator.services.profiles import profile_lines, profile_to_json
@@ -89,6 +90,8 @@ def build_parser() -> argparse.ArgumentParser:
     _catalogue_options(p)
     p.add_argument("--json", action="store_true", help="print JSON instead of text")
     p.add_argument("--save", type=Path, metavar="FILE", help="write the profile as TOML")
+
+    publish_commands.add_parsers(commands, _catalogue_options)
     return parser
 
 
@@ -184,7 +187,12 @@ def main(argv: Sequence[str] | None = None) -> int:
     if args.command is None:
         parser.print_help()
         return EXIT_OK
-    handlers = {"suggest": _run_suggest, "profile": _run_profile}
+    handlers = {
+        "suggest": _run_suggest,
+        "profile": _run_profile,
+        "audit": lambda a: publish_commands.run_audit(_open(a), a),
+        "export": lambda a: publish_commands.run_export(_open(a), a),
+    }
     try:
         return handlers[args.command](args)
     except CuratorError as exc:

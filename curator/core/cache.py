@@ -75,7 +75,7 @@ class CacheEntry:
 
 
 class CatalogueCache:
-    """Entries in ``folder``: ``<key>/store/`` (pyoxigraph), ``<key>/index.pickle``, ``meta.json``."""
+    """Entries in ``folder``: ``<key>/store/``, ``<key>/index.pickle`` and ``<key>/meta.json``."""
 
     def __init__(
         self,

@@ -140,7 +140,8 @@ def suggestion_table(workspace: Workspace, result: SuggestionResult) -> list[str
 
     def seed_line(record: object) -> str:
         position = index.position[record.iri]  # type: ignore[attr-defined]
-        return f"  {record.label} ({finder.describe(position)})"  # type: ignore[attr-defined]
+        line = f"  {record.label} ({finder.describe(position)})"  # type: ignore[attr-defined]
+        return line if len(line) <= WIDTH else line[: WIDTH - 1] + "…"
 
     lines = ["Seeds:", *(seed_line(r) for r in result.seeds), ""]
     counting = result.settings.mode == "shared-count"
@@ -159,7 +160,8 @@ def suggestion_table(workspace: Workspace, result: SuggestionResult) -> list[str
             f"{_fit(kind, 16)} {score:>6}"
         )
         lines += textwrap.wrap(s.rationale, WIDTH, initial_indent="    ", subsequent_indent="    ")
-    lines += [f"Note: {n}" for n in result.notes]
+    for note in result.notes:
+        lines += textwrap.wrap(f"Note: {note}", WIDTH, subsequent_indent="      ")
     return lines
 
 

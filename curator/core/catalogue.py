@@ -218,7 +218,8 @@ class Catalogue:
 
     def select(self, query: str) -> Iterator[tuple[Term | None, ...]]:
         """Rows of a SPARQL SELECT as tuples of pyoxigraph terms (``None`` where unbound)."""
-        solutions = self.store.query(query)
+        # Named graphs (TriG, N-Quads) count as part of the catalogue, like the default graph.
+        solutions = self.store.query(query, use_default_graph_as_union=True)
         variables = [v.value for v in solutions.variables]
         for solution in solutions:
             yield tuple(solution[v] for v in variables)

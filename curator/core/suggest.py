@@ -17,7 +17,7 @@ import scipy.sparse as sp
 from curator.core.errors import SettingsError
 from curator.core.explain import ConnectingPath, Explainer, SharedTheme
 from curator.core.index import Index, WorkRecord
-from curator.core.labels import fold
+from curator.core.labels import fold, iri_tail
 from curator.core.mmr import maximal_marginal_relevance
 from curator.core.similarity import (
     PAGERANK_ALPHA,
@@ -357,14 +357,13 @@ def resolve_kinds(index: Index, names: Sequence[str]) -> set[str]:
             children.setdefault(parent, set()).add(child)
     wanted: set[str] = set()
     for name in names:
-        folded = fold(name)
-        local = folded.split(" ")[-1]
+        local = fold(name.rsplit("/", 1)[-1].rsplit("#", 1)[-1].split(":")[-1]).replace(" ", "")
         hits = {
             k
             for k in {*known, *children}
             if k == name
-            or fold(index.label(k)) == folded
-            or fold(k.rsplit("/", 1)[-1].rsplit("#", 1)[-1]) == local
+            or fold(index.label(k)) == fold(name)
+            or fold(iri_tail(k)).replace(" ", "") == local
         }
         if not hits:
             labels = ", ".join(sorted({index.label(k) for k in known}))

@@ -138,9 +138,11 @@ class TitleFinder:
                 f"{text.strip()!r} could mean several works; give the exact title or the IRI.",
                 [self.candidate(i) for _s, i in scored[:5]],
             )
-        partial = [m.position for m in self.search(stripped, 6)]
-        if len(partial) == 1:
-            return partial[0]
+        found = self.search(stripped, 6)
+        contained = [m.position for m in found if m.score >= 1.2]
+        if len(contained) == 1 and len(found) == 1:
+            return contained[0]
+        partial = [m.position for m in found]
         close = list(dict.fromkeys([*partial, *(i for s, i in scored[:5] if s >= 0.45)]))
         raise SeedError(
             f"No work is titled {text.strip()!r}.", [self.candidate(i) for i in close[:6]]

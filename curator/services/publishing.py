@@ -6,7 +6,6 @@ import json
 from dataclasses import dataclass
 from pathlib import Path
 
-from curator.core.charts import balance_figure, figure_svg
 from curator.core.errors import CuratorError
 from curator.core.explain import Explainer
 from curator.core.export import EXPORT_FORMATS, write_export
@@ -101,6 +100,8 @@ def publication_for(
 def chart_svg(publication: Publication, targets: Targets | None = None) -> str | None:
     if publication.audit is None:
         return None
+    from curator.core.charts import balance_figure, figure_svg  # matplotlib loads slowly
+
     requirements = targets.requirements if targets else ()
     return figure_svg(balance_figure(publication.audit, requirements))
 

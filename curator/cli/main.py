@@ -92,6 +92,8 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--save", type=Path, metavar="FILE", help="write the profile as TOML")
 
     publish_commands.add_parsers(commands, _catalogue_options)
+    o = commands.add_parser("open", help="open the window on catalogue files or folders")
+    o.add_argument("paths", nargs="+", metavar="PATH", help="an RDF file or folder")
     return parser
 
 
@@ -183,15 +185,35 @@ def _run_profile(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
+def _run_window(paths: list[str] | None) -> int:
+    """The window, imported only here so that the command line works without Qt installed."""
+    try:
+        from curator.gui import run
+    except ImportError as exc:
+        sys.stderr.write(
+            f"curator: the window needs PySide6 ({exc}); install it with "
+            "pip install 'curator[gui]', or use curator suggest.\n"
+        )
+        return EXIT_BAD_INPUT
+    return run(paths)
+
+
+def _run_open(args: argparse.Namespace) -> int:
+    missing = [p for p in args.paths if not Path(p).exists()]
+    if missing:
+        raise CuratorError(f"{missing[0]}: no such file or folder.")
+    return _run_window(list(args.paths))
+
+
 def main(argv: Sequence[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
     if args.command is None:
-        parser.print_help()
-        return EXIT_OK
+        return _run_window(None)
     handlers = {
         "suggest": _run_suggest,
         "profile": _run_profile,
+        "open": _run_open,
         "audit": lambda a: publish_commands.run_audit(_open(a), a),
         "export": lambda a: publish_commands.run_export(_open(a), a),
     }

@@ -1,0 +1,723 @@
+"""The main window: three columns (starting titles and browsing, candidates, the list), menus,
+files, autosave and the status bar. It wires the panels to the session editor and the workers;
+the panels themselves know nothing of files, threads or the undo stack.
+"""
+
+from __future__ import annotations
+
+import itertools
+import re
+import time
+from collections.abc import Sequence
+from pathlib import Path
+
+from PySide6.QtCore import QByteArray, QSettings, Qt, QTimer, Signal
+from PySide6.QtGui import QAction, QCloseEvent, QKeySequence, QShowEvent, QUndoStack
+from PySide6.QtWidgets import (
+    QFileDialog,
+    QLabel,
+    QMainWindow,
+    QMenu,
+    QMessageBox,
+    QSplitter,
+    QVBoxLayout,
+    QWidget,
+)
+
+from curator.core.errors import CuratorError
+from curator.core.session import ListEntry, ListSettings, Session, SessionEvent
+from curator.gui.autosave import DOCUMENT_KEY, Autosaver
+from curator.gui.browse_panel import BrowsePanel
+from curator.gui.candidates_panel import CandidatesPanel
+from curator.gui.describe import WorkLine, catalogue_choices, work_line
+from curator.gui.editor import SessionEditor
+from curator.gui.list_panel import ListPanel
+from curator.gui.models import CandidateModel, EntryModel, SeedModel
+from curator.gui.recent import recent_lists, remember
+from curator.gui.seeds_panel import StartingTitlesPanel
+from curator.gui.status import LoadStatus
+from curator.gui.workers import CatalogueLoader, SuggestionAnswer, SuggestionRunner
+from curator.services.browse import search_works
+from curator.services.sessions import (
+    clear_recovery,
+    entry_for_work,
+    entry_from,
+    read_recovery,
+)
+from curator.services.workspace import Workspace
+
+#: Suggestions are recomputed this long after the last change, so a burst of edits costs one.
+REFRESH_DEBOUNCE_MS = 50
+#: How the width is shared between starting titles and browse, candidates, and the list.
+COLUMN_SHARES = (0.28, 0.40, 0.32)
+SESSION_SUFFIX = ".curator.json"
+SESSION_FILTER = "curator lists (*.curator.json);;JSON files (*.json);;All files (*)"
+CATALOGUE_FILTER = (
+    "RDF files (*.ttl *.nt *.nq *.trig *.n3 *.rdf *.owl *.xml *.jsonld *.json);;All files (*)"
+)
+#: Session changes that change what should be suggested (reordering and notes do not).
+_REFRESHING = {"seeds", "entry-inserted", "entry-removed", "dismissed", "settings", "reset"}
+
+KEYS_HELP = """\
+<table cellpadding='2'>
+<tr><td><b>Ctrl+F</b></td><td>find a title to start from</td></tr>
+<tr><td><b>Ctrl+1 … Ctrl+4</b></td>
+<td>go to starting titles, candidates, your list, browse</td></tr>
+<tr><td><b>Enter</b> or <b>Insert</b></td><td>put the selected candidate on your list</td></tr>
+<tr><td><b>D</b></td><td>the selected candidate is not for this list</td></tr>
+<tr><td><b>S</b></td><td>use the selected candidate or entry as a starting title</td></tr>
+<tr><td><b>Ctrl+Up</b>, <b>Ctrl+Down</b></td><td>move the selected entry</td></tr>
+<tr><td><b>Delete</b></td><td>remove the selected entry or starting title</td></tr>
+<tr><td><b>Alt+Left</b>, <b>Alt+Right</b></td><td>back and forward in Browse</td></tr>
+<tr><td><b>Ctrl+Z</b>, <b>Ctrl+Shift+Z</b></td><td>undo and redo</td></tr>
+<tr><td><b>Esc</b></td><td>stop loading a catalogue</td></tr>
+</table>"""
+
+
+def default_file_name(title: str) -> str:
+    slug = re.sub(r"[^\w]+", "-", title.casefold()).strip("-") or "list"
+    return slug + SESSION_SUFFIX
+
+
+class MainWindow(QMainWindow):
+    """One list (the session) against one open catalogue (the workspace)."""
+
+    catalogue_ready = Signal()
+    suggestions_shown = Signal()
+
+    def __init__(self, *, languages: Sequence[str] | None = None) -> None:
+        super().__init__()
+        self.setObjectName("curator-main-window")
+        self.languages = tuple(languages) if languages else None
+        self.session = Session()
+        self.workspace: Workspace | None = None
+        self.catalogue_paths: tuple[str, ...] = ()
+        self.document: Path | None = None
+        self.last_refresh_seconds: float | None = None
+        self.last_compute_seconds: float | None = None
+        self._changed_at: float | None = None
+
+        self.undo_stack = QUndoStack(self)
+        self.editor = SessionEditor(self.session, self.undo_stack, self._entry_for)
+        self.seed_model = SeedModel(self.session, self._describe, self)
+        self.candidate_model = CandidateModel(self)
+        self.entry_model = EntryModel(self.session, self._describe, self)
+        self.seed_model.set_editor(self.editor)
+        self.entry_model.set_editor(self.editor)
+
+        self.seeds_panel = StartingTitlesPanel(self.seed_model)
+        self.candidates_panel = CandidatesPanel(self.candidate_model)
+        self.controls = self.candidates_panel.controls
+        self.list_panel = ListPanel(self.entry_model)
+        self.browse_panel = BrowsePanel()
+        self._build_layout()
+
+        self.summary = QLabel("No catalogue open")
+        self.summary.setContentsMargins(self.fontMetrics().averageCharWidth(), 0, 0, 0)
+        self.load_status = LoadStatus()
+        self.statusBar().addWidget(self.summary, 1)
+        self.statusBar().addPermanentWidget(self.load_status)
+
+        self.loader = CatalogueLoader(self)
+        self.runner = SuggestionRunner(self)
+        self.autosaver = Autosaver(self.session, self)
+        self._refresh_timer = QTimer(self)
+        self._refresh_timer.setSingleShot(True)
+        self._refresh_timer.setInterval(REFRESH_DEBOUNCE_MS)
+        self._refresh_timer.timeout.connect(self._refresh)
+
+        self._build_actions()
+        self._build_menus()
+        self._connect()
+        self._set_tab_order()
+        self.seeds_panel.set_search(None)
+        self.list_panel.set_title(self.session.title)
+        self.candidates_panel.set_message("Opening the catalogue…")
+        self._update_title()
+        self._restore_geometry()
+
+    # ----- building ------------------------------------------------------------------------
+
+    def _build_layout(self) -> None:
+        self.left = QSplitter(Qt.Orientation.Vertical)
+        self.left.setChildrenCollapsible(False)
+        self.left.addWidget(self.seeds_panel)
+        self.left.addWidget(self.browse_panel)
+        self.left.setStretchFactor(0, 2)
+        self.left.setStretchFactor(1, 3)
+        self.columns = QSplitter(Qt.Orientation.Horizontal)
+        self.columns.setChildrenCollapsible(False)
+        for widget in (self.left, self.candidates_panel, self.list_panel):
+            self.columns.addWidget(widget)
+        for column, share in enumerate(COLUMN_SHARES):
+            self.columns.setStretchFactor(column, round(share * 100))
+        centre = QWidget()
+        layout = QVBoxLayout(centre)
+        margin = self.fontMetrics().averageCharWidth() * 2
+        layout.setContentsMargins(margin, margin // 2, margin, 0)
+        layout.addWidget(self.columns)
+        self.columns.setHandleWidth(margin)
+        self.left.setHandleWidth(margin)
+        self.setCentralWidget(centre)
+
+    def _action(
+        self, text: str, slot: object, shortcut: QKeySequence | str | None = None, tip: str = ""
+    ) -> QAction:
+        action = QAction(text, self)
+        if shortcut is not None:
+            action.setShortcut(QKeySequence(shortcut))
+        if tip:
+            action.setToolTip(tip)
+            action.setStatusTip(tip)
+        action.triggered.connect(slot)
+        return action
+
+    def _build_actions(self) -> None:
+        std = QKeySequence.StandardKey
+        self.new_action = self._action(
+            "&New list", self.new_list, QKeySequence(std.New), "Start an empty list"
+        )
+        self.open_action = self._action(
+            "&Open list…", self.open_list_dialog, QKeySequence(std.Open), "Open a saved list"
+        )
+        self.save_action = self._action("&Save", self.save, QKeySequence(std.Save), "Save the list")
+        self.save_as_action = self._action(
+            "Save &as…", self.save_as, "Ctrl+Shift+S", "Save the list under a new name"
+        )
+        self.catalogue_action = self._action(
+            "Open &catalogue…",
+            self.open_catalogue_dialog,
+            "Ctrl+Shift+O",
+            "Open RDF files of your catalogue (Turtle, N-Triples, RDF/XML, JSON-LD…)",
+        )
+        self.folder_action = self._action(
+            "Open catalogue &folder…",
+            self.open_folder_dialog,
+            None,
+            "Open every RDF file in a folder",
+        )
+        self.demo_action = self._action(
+            "Open the &demo collection",
+            lambda: self.open_catalogue([]),
+            None,
+            "The invented library of Hollinmere",
+        )
+        self.quit_action = self._action("&Quit", self.close, QKeySequence(std.Quit))
+        self.undo_action = self.undo_stack.createUndoAction(self, "&Undo")
+        self.undo_action.setShortcut(QKeySequence(std.Undo))
+        self.redo_action = self.undo_stack.createRedoAction(self, "&Redo")
+        self.redo_action.setShortcuts([QKeySequence("Ctrl+Shift+Z"), QKeySequence("Ctrl+Y")])
+        self.find_action = self._action(
+            "&Find a title", self._focus_search, QKeySequence(std.Find), "Find a work to start from"
+        )
+        self.stop_action = self._action(
+            "S&top loading", self.loader.cancel, "Esc", "Stop loading the catalogue"
+        )
+        self.stop_action.setEnabled(False)
+        self.focus_actions = [
+            self._action(text, slot, f"Ctrl+{n}")
+            for n, (text, slot) in enumerate(
+                (
+                    ("&Starting titles", self._focus_search),
+                    ("&Candidates", lambda: self.candidates_panel.view.setFocus()),
+                    ("Your &list", lambda: self.list_panel.view.setFocus()),
+                    ("&Browse", lambda: self.browse_panel.page.setFocus()),
+                ),
+                start=1,
+            )
+        ]
+        for action in (*self.focus_actions, self.stop_action):
+            self.addAction(action)
+
+    def _build_menus(self) -> None:
+        bar = self.menuBar()
+        file_menu = bar.addMenu("&File")
+        file_menu.addActions([self.new_action, self.open_action])
+        self.recent_menu = QMenu("Open &recent", self)
+        self.recent_menu.aboutToShow.connect(self._fill_recent)
+        file_menu.addMenu(self.recent_menu)
+        file_menu.addActions([self.save_action, self.save_as_action])
+        file_menu.addSeparator()
+        file_menu.addActions(
+            [self.catalogue_action, self.folder_action, self.demo_action, self.stop_action]
+        )
+        file_menu.addSeparator()
+        file_menu.addAction(self.quit_action)
+
+        edit = bar.addMenu("&Edit")
+        edit.addActions([self.undo_action, self.redo_action])
+        edit.addSeparator()
+        c = self.candidates_panel
+        edit.addActions([c.add_action, c.dismiss_action, c.seed_action])
+        edit.addSeparator()
+        lp = self.list_panel
+        edit.addActions([lp.up_action, lp.down_action, lp.remove_action, lp.seed_action])
+        edit.addSeparator()
+        edit.addAction(self.find_action)
+
+        view = bar.addMenu("&View")
+        view.addActions(self.focus_actions)
+        go = bar.addMenu("&Go")
+        go.addActions([self.browse_panel.back_action, self.browse_panel.forward_action])
+        help_menu = bar.addMenu("&Help")
+        help_menu.addAction(self._action("&Keyboard", self._show_keys))
+        help_menu.addAction(self._action("&About curator", self._show_about))
+
+    def _connect(self) -> None:
+        self.session.subscribe(self._on_session)
+        self.undo_stack.cleanChanged.connect(self._clean_changed)
+        self.undo_stack.indexChanged.connect(self._stack_changed)
+
+        self.seeds_panel.seed_chosen.connect(self._seed_one)
+        self.seeds_panel.remove_requested.connect(self.editor.remove_seed)
+        self.seeds_panel.work_selected.connect(self.browse_panel.show_iri)
+
+        c = self.candidates_panel
+        c.accept_requested.connect(self._accept_many)
+        c.dismiss_requested.connect(self.editor.dismiss)
+        c.seed_requested.connect(self.editor.add_seeds)
+        c.work_selected.connect(self.browse_panel.show_iri)
+        self.controls.edited.connect(self._settings_edited)
+
+        lp = self.list_panel
+        lp.move_requested.connect(self._move_entry)
+        lp.remove_requested.connect(self.editor.remove_entries)
+        lp.seed_requested.connect(self.editor.add_seeds)
+        lp.edit_requested.connect(self.editor.edit_entry)
+        lp.title_edited.connect(self.editor.set_title)
+        lp.work_selected.connect(self.browse_panel.show_iri)
+
+        self.browse_panel.add_requested.connect(self._accept_one)
+        self.browse_panel.seed_requested.connect(self._seed_one)
+
+        self.loader.started.connect(self._load_started)
+        self.loader.progressed.connect(self.load_status.report)
+        self.loader.loaded.connect(self._loaded)
+        self.loader.failed.connect(self._load_failed)
+        self.loader.cancelled.connect(self._load_cancelled)
+        self.loader.finished.connect(self._load_finished)
+        self.load_status.cancel_requested.connect(self.cancel_loading)
+        self.runner.ready.connect(self._show_answer)
+
+    def _set_tab_order(self) -> None:
+        s, c, lp = self.seeds_panel, self.candidates_panel, self.list_panel
+        ctl = self.controls
+        chain: list[QWidget] = [
+            s.field,
+            s.view,
+            ctl.slider,
+            ctl.kind,
+            ctl.year_from,
+            ctl.year_to,
+            ctl.language,
+            c.view,
+            lp.title,
+            lp.view,
+            lp.rationale,
+            lp.note,
+            self.browse_panel.page,
+        ]
+        for first, second in itertools.pairwise(chain):
+            QWidget.setTabOrder(first, second)
+
+    # ----- the session -------------------------------------------------------------------
+
+    def _describe(self, iri: str, fallback: str) -> WorkLine:
+        return work_line(self.workspace, iri, fallback)
+
+    def _entry_for(self, iri: str) -> ListEntry:
+        """An entry for ``iri``: with the suggestion's rationale when it was a candidate."""
+        row = self.candidate_model.row_for(iri)
+        if row is not None:
+            return entry_from(row.suggestion)
+        if self.workspace is not None and iri in self.workspace.index.position:
+            return entry_for_work(self.workspace, iri)
+        return ListEntry(iri=iri, label=self._describe(iri, iri).title)
+
+    def _on_session(self, event: SessionEvent) -> None:
+        if event.kind in ("title", "reset"):
+            self.list_panel.set_title(self.session.title)
+            self._update_title()
+        if event.kind in ("settings", "reset"):
+            self.controls.set_settings(self.session.settings)
+        if event.kind in _REFRESHING:
+            self.schedule_refresh()
+
+    def _stack_changed(self, _index: int) -> None:
+        if self.undo_stack.isClean():
+            self.autosaver.saved()
+        else:
+            self.autosaver.changed()
+        self._update_title()
+
+    def _clean_changed(self, _clean: bool) -> None:
+        self._update_title()
+
+    def _seed_one(self, iri: str) -> None:
+        self.editor.add_seeds([iri])
+
+    def _accept_one(self, iri: str) -> None:
+        self.editor.accept([iri])
+
+    def _accept_many(self, iris: list[str]) -> None:
+        self.editor.accept(iris)
+
+    def _settings_edited(self, settings: ListSettings, control: str) -> None:
+        self.editor.change_settings(settings, control)
+
+    def _move_entry(self, row: int, to: int) -> None:
+        if self.editor.move_entry(row, to):
+            self.list_panel.select_row(to)
+
+    def is_modified(self) -> bool:
+        return not self.undo_stack.isClean()
+
+    def _update_title(self) -> None:
+        self.setWindowTitle(f"{self.session.title}[*] — curator")
+        self.setWindowModified(self.is_modified())
+
+    def _replace_session(self, other: Session, document: Path | None) -> None:
+        self.runner.invalidate()
+        self.session.replace_with(other)
+        self.undo_stack.clear()
+        self.document = document
+        self.autosaver.document = str(document or "")
+
+    # ----- suggestions -----------------------------------------------------------------------
+
+    def schedule_refresh(self) -> None:
+        """Recompute suggestions soon (debounced); the first unserved change starts the clock."""
+        if self._changed_at is None:
+            self._changed_at = time.perf_counter()
+        self._refresh_timer.start()
+
+    def _refresh(self) -> None:
+        if self.workspace is None:
+            return
+        if not self.session.seeds:
+            self.runner.invalidate()
+            self.candidate_model.set_rows([])
+            self.candidates_panel.set_status("")
+            self.candidates_panel.set_message(
+                "Add a starting title (on the left) and candidates that fit it appear here."
+            )
+            self._served(None)
+            return
+        self.runner.request(self.workspace, self.session)
+
+    def _show_answer(self, answer: SuggestionAnswer) -> None:
+        self.candidate_model.set_rows(answer.rows)
+        count = len(answer.rows)
+        self.candidates_panel.set_status(f"{count} candidate{'s' if count != 1 else ''}")
+        message = answer.error or ""
+        if answer.suggestions is not None:
+            notes = list(answer.suggestions.result.notes) if answer.suggestions.result else []
+            missing = len(answer.suggestions.missing)
+            if missing:
+                notes.append(
+                    f"{missing} work{'s' if missing != 1 else ''} of this list "
+                    f"{'are' if missing != 1 else 'is'} not in the open catalogue; "
+                    "kept on the list, left out of the suggestions."
+                )
+            if not message and notes:
+                message = " ".join(n for n in notes if not n.startswith("Ranked by"))
+        self.candidates_panel.set_message(message)
+        self._served(answer.seconds)
+
+    def _served(self, compute_seconds: float | None) -> None:
+        if self._changed_at is not None:
+            self.last_refresh_seconds = time.perf_counter() - self._changed_at
+            self._changed_at = None
+        self.last_compute_seconds = compute_seconds
+        if self.last_refresh_seconds is not None:
+            self.candidates_panel.status.setToolTip(
+                f"Refreshed {self.last_refresh_seconds * 1000:.0f} ms after the change"
+            )
+        self.suggestions_shown.emit()
+
+    # ----- catalogues ------------------------------------------------------------------------
+
+    def open_catalogue(self, paths: Sequence[str | Path]) -> bool:
+        """Start loading ``paths`` (the demo collection when empty) in the background."""
+        if self.loader.busy:
+            self.statusBar().showMessage("A catalogue is loading already; wait or press Esc.", 5000)
+            return False
+        return self.loader.start([str(p) for p in paths], self.languages)
+
+    def open_catalogue_dialog(self) -> None:
+        files, _ = QFileDialog.getOpenFileNames(self, "Open catalogue files", "", CATALOGUE_FILTER)
+        if files:
+            self.open_catalogue(files)
+
+    def open_folder_dialog(self) -> None:
+        folder = QFileDialog.getExistingDirectory(self, "Open a catalogue folder")
+        if folder:
+            self.open_catalogue([folder])
+
+    def cancel_loading(self) -> None:
+        self.load_status.cancelling()
+        self.loader.cancel()
+
+    def _load_started(self) -> None:
+        self.load_status.begin("Opening the catalogue…")
+        self.stop_action.setEnabled(True)
+        self.catalogue_action.setEnabled(False)
+        self.folder_action.setEnabled(False)
+        self.demo_action.setEnabled(False)
+
+    def _load_finished(self) -> None:
+        self.load_status.end()
+        self.stop_action.setEnabled(False)
+        for action in (self.catalogue_action, self.folder_action, self.demo_action):
+            action.setEnabled(True)
+
+    def _loaded(self, workspace: Workspace, paths: tuple[str, ...]) -> None:
+        self.set_workspace(workspace, paths)
+
+    def _load_failed(self, message: str) -> None:
+        kept = (
+            "The catalogue that was open before is still open."
+            if self.workspace is not None
+            else "No catalogue is open; choose another with File ▸ Open catalogue."
+        )
+        QMessageBox.warning(self, "The catalogue could not be opened", f"{message}\n\n{kept}")
+
+    def _load_cancelled(self) -> None:
+        self.statusBar().showMessage("Loading stopped; nothing was changed.", 5000)
+
+    def set_workspace(self, workspace: Workspace, paths: Sequence[str] = ()) -> None:
+        """Show and suggest from ``workspace`` from now on (``paths`` as opened; () = demo)."""
+        self.runner.invalidate()
+        self.workspace = workspace
+        self.catalogue_paths = tuple(str(p) for p in paths)
+        self.seeds_panel.set_search(lambda text, limit: search_works(workspace, text, limit))
+        self.controls.set_choices(catalogue_choices(workspace))
+        self.seed_model.refresh_lines()
+        self.entry_model.refresh_lines()
+        self.browse_panel.set_workspace(workspace)
+        self.summary.setText(workspace.summary().text())
+        self.summary.setToolTip("\n".join(str(s.path) for s in workspace.sources))
+        self.candidate_model.set_rows([])
+        self.candidates_panel.set_message("")
+        self.schedule_refresh()
+        self.catalogue_ready.emit()
+
+    # ----- files -----------------------------------------------------------------------------
+
+    def _confirm_discard(self) -> bool:
+        """Ask before unsaved work would be lost; True when it is safe to go on."""
+        if not self.is_modified():
+            return True
+        answer = QMessageBox.question(
+            self,
+            "Save the list?",
+            f"“{self.session.title}” has changes that are not saved.",
+            QMessageBox.StandardButton.Save
+            | QMessageBox.StandardButton.Discard
+            | QMessageBox.StandardButton.Cancel,
+            QMessageBox.StandardButton.Save,
+        )
+        if answer == QMessageBox.StandardButton.Save:
+            return self.save()
+        return answer == QMessageBox.StandardButton.Discard
+
+    def new_list(self) -> None:
+        if self._confirm_discard():
+            self._replace_session(Session(), None)
+            self.autosaver.saved()
+            self._update_title()
+
+    def open_list_dialog(self) -> None:
+        if not self._confirm_discard():
+            return
+        start = str(self.document.parent) if self.document else ""
+        path, _ = QFileDialog.getOpenFileName(self, "Open a list", start, SESSION_FILTER)
+        if path:
+            self.open_list(Path(path), confirm=False)
+
+    def open_list(self, path: Path, *, confirm: bool = True) -> bool:
+        """Open a saved list; a damaged file is refused with a message and nothing changes."""
+        if confirm and not self._confirm_discard():
+            return False
+        try:
+            loaded = Session.load(path)
+        except CuratorError as exc:
+            QMessageBox.warning(self, "The list could not be opened", str(exc))
+            return False
+        self._replace_session(loaded, Path(path))
+        self.autosaver.saved()
+        remember(Path(path))
+        self._update_title()
+        wanted = tuple(loaded.catalogue)
+        if wanted and wanted != self.catalogue_paths:
+            if all(Path(p).exists() for p in wanted):
+                self.open_catalogue(wanted)
+            else:
+                self.statusBar().showMessage(
+                    "The catalogue this list was made with is not here; showing it against "
+                    "the one that is open.",
+                    8000,
+                )
+        return True
+
+    def save(self) -> bool:
+        if self.document is None:
+            return self.save_as()
+        return self.save_to(self.document)
+
+    def save_as(self) -> bool:
+        start = (
+            str(self.document)
+            if self.document
+            else str(Path.home() / default_file_name(self.session.title))
+        )
+        path, _ = QFileDialog.getSaveFileName(self, "Save the list", start, SESSION_FILTER)
+        if not path:
+            return False
+        if not path.endswith(".json"):
+            path += SESSION_SUFFIX
+        return self.save_to(Path(path))
+
+    def save_to(self, path: Path) -> bool:
+        """Write the list (atomically); on failure the old file is untouched and we say why."""
+        self.session.catalogue = list(self.catalogue_paths)
+        try:
+            self.session.save(Path(path))
+        except (OSError, CuratorError) as exc:
+            QMessageBox.warning(self, "The list could not be saved", f"{path}: {exc}")
+            return False
+        self.document = Path(path)
+        self.autosaver.document = str(path)
+        self.undo_stack.setClean()
+        self.autosaver.saved()
+        remember(Path(path))
+        self._update_title()
+        self.statusBar().showMessage(f"Saved to {path}", 5000)
+        return True
+
+    def _fill_recent(self) -> None:
+        self.recent_menu.clear()
+        paths = recent_lists()
+        for number, path in enumerate(paths, start=1):
+            action = self.recent_menu.addAction(f"&{number} {path.name}")
+            action.setToolTip(str(path))
+            action.triggered.connect(lambda _c=False, p=path: self.open_list(p))
+        if not paths:
+            self.recent_menu.addAction("No recent lists").setEnabled(False)
+
+    # ----- starting and stopping -------------------------------------------------------------
+
+    def start(self, paths: Sequence[str] | None = None) -> None:
+        """Offer back unsaved work from a crash, then open the catalogue."""
+        recovered = self.offer_recovery()
+        chosen = list(paths or [])
+        if (
+            not chosen
+            and recovered is not None
+            and recovered.catalogue
+            and all(Path(p).exists() for p in recovered.catalogue)
+        ):
+            chosen = list(recovered.catalogue)
+        self.open_catalogue(chosen)
+
+    def offer_recovery(self) -> Session | None:
+        """If the last run left unsaved work, ask whether to restore it."""
+        found = read_recovery()
+        if found is None:
+            return None
+        answer = QMessageBox.question(
+            self,
+            "Restore your unsaved list?",
+            f"curator did not close properly last time. Restore “{found.title}” as it was "
+            f"({len(found.entries)} entries, {len(found.seeds)} starting titles)?",
+            QMessageBox.StandardButton.Yes | QMessageBox.StandardButton.No,
+            QMessageBox.StandardButton.Yes,
+        )
+        if answer != QMessageBox.StandardButton.Yes:
+            clear_recovery()
+            return None
+        saved_as = str(QSettings().value(DOCUMENT_KEY, "") or "")
+        self._replace_session(found, Path(saved_as) if saved_as else None)
+        self.undo_stack.resetClean()
+        self.autosaver.changed()
+        self._update_title()
+        return found
+
+    def closeEvent(self, event: QCloseEvent) -> None:
+        if not self._confirm_discard():
+            event.ignore()
+            return
+        self.shutdown()
+        event.accept()
+
+    def shutdown(self) -> None:
+        """Stop the workers and timers, remember the layout, and remove the recovery file."""
+        self._save_geometry()
+        self._refresh_timer.stop()
+        self.loader.stop()
+        self.runner.stop()
+        self.autosaver.stop()
+        clear_recovery()
+        self.session.unsubscribe(self._on_session)
+        self.seed_model.detach()
+        self.entry_model.detach()
+
+    # ----- remembering the layout --------------------------------------------------------------
+
+    def _save_geometry(self) -> None:
+        settings = QSettings()
+        settings.setValue("window/geometry", self.saveGeometry())
+        settings.setValue("window/state", self.saveState())
+        settings.setValue("window/columns", self.columns.saveState())
+        settings.setValue("window/left", self.left.saveState())
+        settings.setValue("window/list", self.list_panel.splitter.saveState())
+
+    def _restore_geometry(self) -> None:
+        settings = QSettings()
+        geometry = settings.value("window/geometry")
+        if isinstance(geometry, QByteArray) and not geometry.isEmpty():
+            self.restoreGeometry(geometry)
+        else:
+            metrics = self.fontMetrics()
+            self.resize(metrics.averageCharWidth() * 190, metrics.height() * 48)
+        self._splitters_restored = False
+        for key, target in (
+            ("window/state", self.restoreState),
+            ("window/columns", self.columns.restoreState),
+            ("window/left", self.left.restoreState),
+            ("window/list", self.list_panel.splitter.restoreState),
+        ):
+            value = settings.value(key)
+            if isinstance(value, QByteArray) and not value.isEmpty():
+                self._splitters_restored = bool(target(value)) or self._splitters_restored
+
+    def showEvent(self, event: QShowEvent) -> None:
+        """On a first run, share the width out by what each column needs (not by size hints)."""
+        super().showEvent(event)
+        if self._splitters_restored:
+            return
+        self._splitters_restored = True
+        width = max(self.columns.width(), 1)
+        self.columns.setSizes([round(width * share) for share in COLUMN_SHARES])
+        height = max(self.left.height(), 1)
+        self.left.setSizes([round(height * 0.24), round(height * 0.76)])
+        list_height = max(self.list_panel.splitter.height(), 1)
+        self.list_panel.splitter.setSizes([round(list_height * 0.6), round(list_height * 0.4)])
+
+    # ----- small things --------------------------------------------------------------------------
+
+    def _focus_search(self) -> None:
+        self.seeds_panel.field.setFocus()
+        self.seeds_panel.field.selectAll()
+
+    def _show_keys(self) -> None:
+        QMessageBox.information(self, "Keyboard", KEYS_HELP)
+
+    def _show_about(self) -> None:
+        QMessageBox.about(
+            self,
+            "About curator",
+            "<p><b>curator</b> helps you build themed reading and viewing lists from your own "
+            "catalogue: start from a few titles, take the candidates that fit, keep the list "
+            "varied, and say why each entry belongs.</p>",
+        )

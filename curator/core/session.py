@@ -66,6 +66,10 @@ class ListSettings:
     year_from: int | None = None
     year_to: int | None = None
     languages: tuple[str, ...] = ()
+    #: Favour candidates that fill the list's gaps.
+    fill_gaps: bool = False
+    #: The curator's balance targets as TOML text (see :mod:`curator.core.targets`).
+    targets: str = ""
 
 
 Listener = Callable[[SessionEvent], None]
@@ -272,6 +276,8 @@ class Session:
                 year_from=_optional_int(settings_data.get("year_from"), "settings.year_from"),
                 year_to=_optional_int(settings_data.get("year_to"), "settings.year_to"),
                 languages=tuple(_strings(settings_data.get("languages", []), "settings.languages")),
+                fill_gaps=bool(settings_data.get("fill_gaps", False)),
+                targets=str(settings_data.get("targets", "")),
             )
             entries = []
             raw_entries = data.get("entries", [])
@@ -336,4 +342,3 @@ def _optional_int(value: Any, name: str) -> int | None:
 
 def _now() -> str:
     return datetime.now(UTC).isoformat(timespec="seconds")
-

@@ -14,6 +14,8 @@ from typing import Literal, get_args
 import numpy as np
 import scipy.sparse as sp
 
+from curator.core.audit import FacetReader
+from curator.core.coverage import DEFAULT_GAP_WEIGHT, diversify_with_coverage, list_gaps
 from curator.core.errors import SettingsError
 from curator.core.explain import ConnectingPath, Explainer, SharedTheme
 from curator.core.index import Index, WorkRecord
@@ -24,6 +26,7 @@ from curator.core.similarity import (
     personalized_pagerank,
     personalized_pagerank_push,
 )
+from curator.core.targets import Targets
 
 Mode = Literal["blend", "content", "graph", "shared-count"]
 MODES: tuple[str, ...] = get_args(Mode)
@@ -60,6 +63,11 @@ class SuggestSettings:
     dismissed_penalty: float = 0.5
     #: Exact power iteration for the graph part instead of forward push (slower).
     exact_graph: bool = False
+    #: Favour candidates that fill the list's gaps (unmet targets, or missing kinds, decades
+    #: and languages when there are no targets); see :mod:`curator.core.coverage`.
+    fill_gaps: bool = False
+    gap_weight: float = DEFAULT_GAP_WEIGHT
+    targets: Targets | None = None
 
     def checked(self) -> SuggestSettings:
         """The same settings, or a :class:`SettingsError` naming the field that is off."""
@@ -114,6 +122,14 @@ class Suggester:
         self.index = index
         self._incidence: dict[str, sp.csr_matrix] = {}
         self._degree = np.asarray(index.graph.sum(axis=1)).ravel()
+        self._reader: FacetReader | None = None
+        #: Labels of the gaps the last gap-filling suggestion aimed at.
+        self.last_gaps: tuple[str, ...] = ()
+
+    def _facet_reader(self) -> FacetReader:
+        if self._reader is None:
+            self._reader = FacetReader(self.index)
+        return self._reader
 
     # ----- relevance -------------------------------------------------------------------
 
@@ -260,6 +276,9 @@ class Suggester:
                 candidates, rel, settings, seeds, list_items
             )
 
+        if settings.fill_gaps and settings.mode != "shared-count":
+            gaps = ", ".join(self.last_gaps[:6]) or "none found"
+            notes.append(f"Favouring works that fill the list's gaps: {gaps}.")
         explainer = Explainer(index, seeds, list_items)
         suggestions = []
         for position in chosen:
@@ -307,9 +326,27 @@ class Suggester:
         # Relevance already measures closeness to the seeds; counting it again in full as
         # redundancy would make every lambda below 0.5 prefer the least relevant works.
         already[:, : len(seeds)] *= settings.seed_redundancy
-        picks = maximal_marginal_relevance(
-            relevance, similarity, settings.limit, settings.lam, already=already
-        )
+        if settings.fill_gaps:
+            row_of = {int(c): r for r, c in enumerate(candidates)}
+            aspects = list_gaps(
+                self.index, list_items, [int(c) for c in candidates], settings.targets,
+                self._facet_reader(),
+            )
+            self.last_gaps = tuple(a.label for a in aspects)
+            picks = diversify_with_coverage(
+                relevance,
+                similarity,
+                settings.limit,
+                settings.lam,
+                already=already,
+                aspects=aspects,
+                members=[[row_of[m] for m in a.members if m in row_of] for a in aspects],
+                beta=settings.gap_weight,
+            )
+        else:
+            picks = maximal_marginal_relevance(
+                relevance, similarity, settings.limit, settings.lam, already=already
+            )
         chosen = [int(candidates[p]) for p in picks]
         scores: dict[int, float] = {}
         redundancy = already.max(axis=1) if already.size else np.zeros(len(candidates))

@@ -11,11 +11,25 @@ from pathlib import Path
 
 from curator.core.session import ListEntry, ListSettings, Session, SessionError
 from curator.core.suggest import Suggestion, SuggestionResult, SuggestSettings
+from curator.core.targets import Targets
 from curator.services.workspace import Workspace
+
+
+def targets_of(list_settings: ListSettings) -> Targets | None:
+    """The session's targets, or None when it has none.
+
+    Raises:
+        TargetsError: the targets text is malformed (the message names the field).
+    """
+    if not list_settings.targets.strip():
+        return None
+    return Targets.from_toml(list_settings.targets, source="the list's targets")
 
 
 def settings_for(list_settings: ListSettings, limit: int = 20) -> SuggestSettings:
     return SuggestSettings(
+        fill_gaps=list_settings.fill_gaps,
+        targets=targets_of(list_settings) if list_settings.fill_gaps else None,
         mode=list_settings.mode,  # type: ignore[arg-type]
         lam=list_settings.lam,
         limit=limit,

@@ -195,6 +195,24 @@ class Session:
                 setattr(self, f.name, getattr(other, f.name))
         self._emit("reset")
 
+    def set_catalogue(self, paths: list[str]) -> None:
+        """Remember which catalogue files the list was made from (saved with it)."""
+        if paths != self.catalogue:
+            self.catalogue = list(paths)
+            self._emit("settings")
+
+    def snapshot(self) -> Session:
+        """An independent copy with no watchers, safe to hand to a worker thread."""
+        return Session(
+            title=self.title,
+            seeds=list(self.seeds),
+            entries=list(self.entries),
+            dismissed=list(self.dismissed),
+            settings=self.settings,
+            catalogue=list(self.catalogue),
+            created=self.created,
+        )
+
     @property
     def entry_iris(self) -> list[str]:
         return [e.iri for e in self.entries]

@@ -2,12 +2,15 @@
 
 Builds a small list the way a curator would (two starting titles, a few accepted candidates, a
 note, a candidate selected so its rationale shows) and saves ``docs/screenshot.png`` and, in a
-second process with ``QT_SCALE_FACTOR=1.5``, ``docs/screenshot-150.png``. Needs a display (run
+second process with ``QT_SCALE_FACTOR=1.5``, ``docs/screenshot-150.png``. A third picture,
+``docs/screenshot-balance.png``, shows the same list with targets set, *Fill the gaps* on and the
+Balance tab open, its column widened the way a curator would drag it. Needs a display (run
 ``scripts/screenshot.sh`` on a machine without one). Settings and the recovery file go to a
 temporary folder, so the user's own are never touched.
 
-    python scripts/screenshot.py                 # both pictures
+    python scripts/screenshot.py                 # all three pictures
     python scripts/screenshot.py --scale 1.5 --out docs/x.png
+    python scripts/screenshot.py --scene balance --out docs/x.png
 """
 
 from __future__ import annotations
@@ -29,6 +32,25 @@ NOTE = "Two copies at the Cindlebeck branch; display face-out beside the seeds."
 LIST_TITLE = "Secrets and long winters"
 #: Window size in device-independent pixels at scale 1; larger scales fill the screen instead.
 SIZE = (1500, 920)
+#: The balance picture: the targets a curator might set for this list, and the column widths
+#: after widening the Balance tab.
+TARGETS = """\
+max_entries = 12
+
+[[require]]
+facet = "kind"
+value = "Film"
+min_share = 0.4
+
+[[require]]
+facet = "decade"
+min_distinct = 5
+
+[[require]]
+facet = "creator"
+max_share = 0.25        # no creator with more than a quarter of the list
+"""
+BALANCE_COLUMNS = (0.40, 0.32, 0.28)
 
 
 def _wait(app: object, done: Callable[[], bool], timeout: float = 15.0) -> None:
@@ -50,7 +72,7 @@ def _wait(app: object, done: Callable[[], bool], timeout: float = 15.0) -> None:
         raise SystemExit("screenshot: timed out waiting for the window")
 
 
-def shoot(out: Path, scale: float) -> float:
+def shoot(out: Path, scale: float, scene: str = "list") -> float:
     """Build the scene and save it to ``out``; returns the last refresh latency in seconds."""
     os.environ["QT_SCALE_FACTOR"] = f"{scale:g}"
     state = Path(tempfile.mkdtemp(prefix="curator-shot-"))
@@ -108,6 +130,8 @@ def shoot(out: Path, scale: float) -> float:
         if row.path and not any(row.line.title.startswith(seed) for seed in SEEDS)
     )
     candidates.select_iri(showcase.iri)
+    if scene == "balance":
+        _balance_scene(app, window)
     _wait(app, lambda: True)
     for _ in range(5):
         app.processEvents()
@@ -122,22 +146,54 @@ def shoot(out: Path, scale: float) -> float:
     return latency
 
 
+def _balance_scene(app: object, window: object) -> None:
+    """Targets set, Fill the gaps on, the Balance tab open and widened; waits for its charts."""
+    from curator.gui.window import MainWindow
+
+    assert isinstance(window, MainWindow)
+    window.editor.set_targets(TARGETS)
+    window.controls.fill_gaps.setChecked(True)
+    _wait(app, lambda: window._changed_at is None and window.candidates_panel.gaps_note.line())
+    width = sum(window.columns.sizes())
+    window.columns.setSizes([round(width * share) for share in BALANCE_COLUMNS])
+    window.show_balance()
+    panel = window.balance_panel
+
+    def charted() -> bool:
+        report = panel.report
+        return (
+            report is not None
+            and report.targets is not None
+            and report.chart is not None
+            and not panel.needs_chart()
+        )
+
+    _wait(app, charted, timeout=30.0)
+
+
 def main() -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--out", type=Path, help="one picture at --scale, to this file")
     parser.add_argument("--scale", type=float, default=1.0)
+    parser.add_argument("--scene", choices=("list", "balance"), default="list")
     args = parser.parse_args()
     if args.out is not None:
-        latency = shoot(args.out, args.scale)
+        latency = shoot(args.out, args.scale, args.scene)
         print(f"{args.out}: saved (last refresh {latency * 1000:.0f} ms after the change)")
         return 0
     status = 0
-    for scale, name in ((1.0, "screenshot.png"), (1.5, "screenshot-150.png")):
+    for scale, scene, name in (
+        (1.0, "list", "screenshot.png"),
+        (1.5, "list", "screenshot-150.png"),
+        (1.0, "balance", "screenshot-balance.png"),
+    ):
         command = [
             sys.executable,
             __file__,
             "--scale",
             str(scale),
+            "--scene",
+            scene,
             "--out",
             str(REPO / "docs" / name),
         ]

@@ -46,7 +46,8 @@ class BrowsePanel(QWidget):
     add_requested = Signal(str)
     seed_requested = Signal(str)
 
-    def __init__(self, parent: QWidget | None = None) -> None:
+    def __init__(self, parent: QWidget | None = None, *, in_tab: bool = False) -> None:
+        """``in_tab``: no heading of its own (the tab carries the name)."""
         super().__init__(parent)
         self._workspace: Workspace | None = None
         self.history = BrowseHistory()
@@ -69,17 +70,22 @@ class BrowsePanel(QWidget):
             action.setShortcutContext(Qt.ShortcutContext.WindowShortcut)
             self.addAction(action)
 
-        title = heading("B&rowse")
-        title.setBuddy(self.page)
-        header = QHBoxLayout()
-        header.addWidget(title)
-        header.addStretch(1)
+        self.navigation = QWidget()
+        buttons = QHBoxLayout(self.navigation)
+        buttons.setContentsMargins(0, 0, 0, 0)
         for action, text in ((self.back_action, "‹ Back"), (self.forward_action, "Forward ›")):
             button = QToolButton()
             action.setIconText(text)  # what a button shows; menus keep the full text
             button.setDefaultAction(action)
             button.setAutoRaise(True)
-            header.addWidget(button)
+            buttons.addWidget(button)
+        header = QHBoxLayout()
+        if not in_tab:
+            title = heading("B&rowse")
+            title.setBuddy(self.page)
+            header.addWidget(title)
+        header.addStretch(1)
+        header.addWidget(self.navigation)
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)
         layout.addLayout(header)

@@ -26,7 +26,7 @@ from curator.gui.controls import SuggestionControls
 from curator.gui.delegates import CandidateDelegate
 from curator.gui.describe import CandidateRow
 from curator.gui.models import CandidateModel, Role
-from curator.gui.style import heading, quiet
+from curator.gui.style import QuietLine, heading, quiet
 
 #: Lines of text the explanation area shows without scrolling.
 EXPLANATION_LINES = 7
@@ -95,6 +95,11 @@ class CandidatesPanel(QWidget):
         self.status.setWordWrap(False)
         self.status.setAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
 
+        # Which gaps "Fill the gaps" aims at: one quiet line under the controls while it is on.
+        self.gaps_note = QuietLine()
+        self.gaps_note.setAccessibleName("Gaps being filled")
+        self.gaps_note.setVisible(False)
+
         self.explanation = QTextBrowser()
         self.explanation.setOpenLinks(False)
         self.explanation.setFocusPolicy(Qt.FocusPolicy.ClickFocus)
@@ -135,6 +140,7 @@ class CandidatesPanel(QWidget):
         layout.setContentsMargins(0, 0, 0, 0)
         layout.addLayout(header)
         layout.addWidget(self.controls)
+        layout.addWidget(self.gaps_note)
         layout.addWidget(self.view, 1)
         layout.addWidget(self.explanation)
         layout.addLayout(buttons)
@@ -228,6 +234,11 @@ class CandidatesPanel(QWidget):
         """What to say when no candidate is selected (a hint, a note, or a problem)."""
         self._message = text
         self._show_explanation()
+
+    def set_gaps_note(self, text: str) -> None:
+        """The suggester's note on the gaps it favours ("" hides the line)."""
+        self.gaps_note.set_line(text)
+        self.gaps_note.setVisible(bool(text))
 
     def set_status(self, text: str) -> None:
         self.status.setText(text)

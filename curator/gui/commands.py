@@ -7,6 +7,7 @@ views show. Typing in a text field and dragging the variety slider merge into on
 from __future__ import annotations
 
 from collections.abc import Sequence
+from dataclasses import replace
 from enum import IntEnum
 
 from PySide6.QtGui import QUndoCommand
@@ -187,6 +188,8 @@ class ChangeSettings(QUndoCommand):
         if not isinstance(other, ChangeSettings) or other.control != self.control:
             return False
         self._new = other._new
+        # Back where it started (a switch turned on and off again): Qt drops the step.
+        self.setObsolete(self._new == self._old)
         return True
 
     def redo(self) -> None:
@@ -194,6 +197,25 @@ class ChangeSettings(QUndoCommand):
 
     def undo(self) -> None:
         self._session.set_settings(self._old)
+
+
+class SetTargets(QUndoCommand):
+    """New balance targets (TOML text, already checked); only that field of the settings."""
+
+    def __init__(self, session: Session, text: str) -> None:
+        super().__init__("Change the targets" if text.strip() else "Clear the targets")
+        self._session = session
+        self._old = session.settings.targets
+        self._new = text
+
+    def _apply(self, text: str) -> None:
+        self._session.set_settings(replace(self._session.settings, targets=text))
+
+    def redo(self) -> None:
+        self._apply(self._new)
+
+    def undo(self) -> None:
+        self._apply(self._old)
 
 
 class SetTitle(QUndoCommand):

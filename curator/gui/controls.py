@@ -1,4 +1,5 @@
-"""The controls above the candidates: closeness against variety, kind, years, language.
+"""The controls above the candidates: closeness against variety, kind, years, language, and
+whether to fill the list's gaps.
 
 They show a ListSettings and report edits as a new ListSettings plus the name of the control
 that changed (so that dragging the slider merges into one undo step). They never change the
@@ -12,6 +13,7 @@ from dataclasses import replace
 from PySide6.QtCore import QLocale, QSize, Qt, Signal
 from PySide6.QtGui import QResizeEvent
 from PySide6.QtWidgets import (
+    QCheckBox,
     QComboBox,
     QHBoxLayout,
     QLabel,
@@ -28,6 +30,12 @@ from curator.gui.describe import CatalogueChoices
 
 #: The slider runs 0..SLIDER_STEPS; the left end is pure relevance (lambda 1.0).
 SLIDER_STEPS = 100
+
+FILL_GAPS_TIP = (
+    "Favour candidates that close the list's unmet targets, or add a kind, decade or language "
+    "the list does not have yet.\nSet targets with Edit ▸ Balance targets (Ctrl+T); the "
+    "Balance tab shows which are met."
+)
 
 
 def lam_to_slider(lam: float) -> int:
@@ -100,6 +108,10 @@ class SuggestionControls(QWidget):
         language_label = QLabel("Lang&uage")
         language_label.setBuddy(self.language)
 
+        self.fill_gaps = QCheckBox("Fill the ga&ps")
+        self.fill_gaps.setToolTip(FILL_GAPS_TIP)
+        self.fill_gaps.setAccessibleDescription(FILL_GAPS_TIP)
+
         slider_row = QHBoxLayout()
         slider_row.addWidget(close_label)
         slider_row.addWidget(self.slider, 1)
@@ -107,6 +119,7 @@ class SuggestionControls(QWidget):
         self._kind_group = _group(kind_label, self.kind)
         self._years_group = _group(years_label, self.year_from, dash, self.year_to)
         self._language_group = _group(language_label, self.language)
+        self._gaps_group = _group(self.fill_gaps)
         self._rows = (QHBoxLayout(), QHBoxLayout())
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)
@@ -124,16 +137,17 @@ class SuggestionControls(QWidget):
         self.language.currentIndexChanged.connect(lambda _i: self._emit_filter("language"))
         self.year_from.valueChanged.connect(lambda _v: self._emit_filter("years"))
         self.year_to.valueChanged.connect(lambda _v: self._emit_filter("years"))
+        self.fill_gaps.toggled.connect(lambda _on: self._emit_filter("gap filling"))
 
-    def _groups(self) -> tuple[QWidget, QWidget, QWidget]:
-        return (self._kind_group, self._years_group, self._language_group)
+    def _groups(self) -> tuple[QWidget, ...]:
+        return (self._kind_group, self._years_group, self._language_group, self._gaps_group)
 
     def _one_row_width(self) -> int:
-        gap = self._rows[0].spacing() * 4
+        gap = self._rows[0].spacing() * (len(self._groups()) + 1)
         return sum(g.sizeHint().width() for g in self._groups()) + gap
 
     def _arrange(self, *, one_row: bool) -> None:
-        """Filters on one row when they fit, else kind and language above the years."""
+        """Filters on one row when they fit, else kind and language above years and gaps."""
         if one_row == self._one_row:
             return
         self._one_row = one_row
@@ -148,6 +162,7 @@ class SuggestionControls(QWidget):
             first.addWidget(self._kind_group)
             first.addWidget(self._language_group)
             second.addWidget(self._years_group)
+            second.addWidget(self._gaps_group)
         first.addStretch(1)
         second.addStretch(1)
 
@@ -155,7 +170,7 @@ class SuggestionControls(QWidget):
         slider = self.slider.minimumSizeHint().width() * 3
         narrow = max(
             self._kind_group.sizeHint().width() + self._language_group.sizeHint().width(),
-            self._years_group.sizeHint().width(),
+            self._years_group.sizeHint().width() + self._gaps_group.sizeHint().width(),
             slider,
         )
         rows = self._kind_group.sizeHint().height() * 2 + self.slider.sizeHint().height()
@@ -203,6 +218,7 @@ class SuggestionControls(QWidget):
             self._select(self.language, settings.languages[0] if settings.languages else "")
             self._show_year(self.year_from, settings.year_from)
             self._show_year(self.year_to, settings.year_to)
+            self.fill_gaps.setChecked(settings.fill_gaps)
         finally:
             self._updating = False
 
@@ -239,6 +255,7 @@ class SuggestionControls(QWidget):
             languages=(language,) if language else (),
             year_from=year_from,
             year_to=year_to,
+            fill_gaps=self.fill_gaps.isChecked(),
         )
 
     def _slider_moved(self, _value: int) -> None:

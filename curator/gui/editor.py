@@ -14,6 +14,8 @@ from curator.core.session import ListEntry, ListSettings, Session
 from curator.gui import commands
 
 EntryFactory = Callable[[str], ListEntry]
+#: What a list is called until the curator names it (the Session's own default).
+UNTITLED = Session().title
 
 
 class SessionEditor:
@@ -71,6 +73,31 @@ class SessionEditor:
             settings != self.session.settings,
         )
 
+    def set_targets(self, text: str) -> bool:
+        """Store balance targets (the caller has checked that they read)."""
+        return self._push(
+            commands.SetTargets(self.session, text), text != self.session.settings.targets
+        )
+
+    def import_entries(self, entries: Sequence[ListEntry], source: str, title: str = "") -> bool:
+        """Add works read from an outside list as one undo step; an empty, untitled list also
+        takes the imported list's ``title``."""
+        insert = commands.InsertEntries(self.session, entries, len(self.session.entries))
+        if not insert.useful:
+            return False
+        rename = (
+            bool(title)
+            and not self.session.entries
+            and self.session.title == UNTITLED
+            and title != UNTITLED
+        )
+        self.stack.beginMacro(f"Import from {source}")
+        self.stack.push(insert)
+        if rename:
+            self.stack.push(commands.SetTitle(self.session, title))
+        self.stack.endMacro()
+        return True
+
     def set_title(self, title: str) -> bool:
-        title = title.strip() or "Untitled list"
+        title = title.strip() or UNTITLED
         return self._push(commands.SetTitle(self.session, title), title != self.session.title)

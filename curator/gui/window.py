@@ -1,6 +1,7 @@
-"""The main window: three columns (starting titles and browsing, candidates, the list), menus,
-files, autosave and the status bar. It wires the panels to the session editor and the workers;
-the panels themselves know nothing of files, threads or the undo stack.
+"""The main window: three columns (starting titles with browsing and the balance, candidates,
+the list), menus, files, import and export, autosave and the status bar. It wires the panels to
+the session editor and the workers; the panels themselves know nothing of files, threads or the
+undo stack.
 """
 
 from __future__ import annotations
@@ -10,44 +11,64 @@ import re
 import time
 from collections.abc import Sequence
 from pathlib import Path
+from typing import Any
 
 from PySide6.QtCore import QByteArray, QSettings, Qt, QTimer, Signal
 from PySide6.QtGui import QAction, QCloseEvent, QKeySequence, QShowEvent, QUndoStack
 from PySide6.QtWidgets import (
+    QDialog,
     QFileDialog,
     QLabel,
     QMainWindow,
     QMenu,
     QMessageBox,
     QSplitter,
+    QTabWidget,
     QVBoxLayout,
     QWidget,
 )
 
 from curator.core.errors import CuratorError
 from curator.core.session import ListEntry, ListSettings, Session, SessionEvent
+from curator.core.targets import TargetsError
 from curator.gui.autosave import DOCUMENT_KEY, Autosaver
+from curator.gui.balance_panel import NO_CATALOGUE, BalancePanel
 from curator.gui.browse_panel import BrowsePanel
 from curator.gui.candidates_panel import CandidatesPanel
+from curator.gui.delegates import scaled_font
 from curator.gui.describe import WorkLine, catalogue_choices, work_line
 from curator.gui.editor import SessionEditor
+from curator.gui.export_dialog import ExportDialog
+from curator.gui.import_dialog import ImportDialog, plan_import
 from curator.gui.list_panel import ListPanel
 from curator.gui.models import CandidateModel, EntryModel, SeedModel
 from curator.gui.recent import recent_lists, remember
 from curator.gui.seeds_panel import StartingTitlesPanel
 from curator.gui.status import LoadStatus
-from curator.gui.workers import CatalogueLoader, SuggestionAnswer, SuggestionRunner
+from curator.gui.targets_dialog import TargetsDialog
+from curator.gui.workers import (
+    BalanceAnswer,
+    BalanceRunner,
+    CatalogueLoader,
+    SuggestionAnswer,
+    SuggestionRunner,
+    TaskRunner,
+)
 from curator.services.browse import search_works
+from curator.services.publishing import LoadedList, from_session, load_list, publication_for
 from curator.services.sessions import (
     clear_recovery,
     entry_for_work,
     entry_from,
     read_recovery,
+    targets_of,
 )
 from curator.services.workspace import Workspace
 
 #: Suggestions are recomputed this long after the last change, so a burst of edits costs one.
 REFRESH_DEBOUNCE_MS = 50
+#: The balance waits a little longer: its charts take the worker about half a second.
+BALANCE_DEBOUNCE_MS = 150
 #: How the width is shared between starting titles and browse, candidates, and the list.
 COLUMN_SHARES = (0.28, 0.40, 0.32)
 SESSION_SUFFIX = ".curator.json"
@@ -55,14 +76,19 @@ SESSION_FILTER = "curator lists (*.curator.json);;JSON files (*.json);;All files
 CATALOGUE_FILTER = (
     "RDF files (*.ttl *.nt *.nq *.trig *.n3 *.rdf *.owl *.xml *.jsonld *.json);;All files (*)"
 )
+IMPORT_FILTER = "Lists (*.csv *.tsv *.txt);;curator lists (*.curator.json);;All files (*)"
 #: Session changes that change what should be suggested (reordering and notes do not).
 _REFRESHING = {"seeds", "entry-inserted", "entry-removed", "dismissed", "settings", "reset"}
+#: Session changes that change the balance (the same: the audit ignores order and notes).
+_REBALANCING = _REFRESHING - {"dismissed"}
+#: Notes of the suggester shown on their own quiet line rather than in the explanation area.
+GAPS_NOTE = "Favouring works that fill"
 
 KEYS_HELP = """\
 <table cellpadding='2'>
 <tr><td><b>Ctrl+F</b></td><td>find a title to start from</td></tr>
-<tr><td><b>Ctrl+1 … Ctrl+4</b></td>
-<td>go to starting titles, candidates, your list, browse</td></tr>
+<tr><td><b>Ctrl+1 … Ctrl+5</b></td>
+<td>go to starting titles, candidates, your list, browse, balance</td></tr>
 <tr><td><b>Enter</b> or <b>Insert</b></td><td>put the selected candidate on your list</td></tr>
 <tr><td><b>D</b></td><td>the selected candidate is not for this list</td></tr>
 <tr><td><b>S</b></td><td>use the selected candidate or entry as a starting title</td></tr>
@@ -70,6 +96,8 @@ KEYS_HELP = """\
 <tr><td><b>Delete</b></td><td>remove the selected entry or starting title</td></tr>
 <tr><td><b>Alt+Left</b>, <b>Alt+Right</b></td><td>back and forward in Browse</td></tr>
 <tr><td><b>Ctrl+Z</b>, <b>Ctrl+Shift+Z</b></td><td>undo and redo</td></tr>
+<tr><td><b>Ctrl+T</b></td><td>the list's balance targets</td></tr>
+<tr><td><b>Ctrl+E</b></td><td>export the list (web page, PDF, spreadsheet, linked data)</td></tr>
 <tr><td><b>Esc</b></td><td>stop loading a catalogue</td></tr>
 </table>"""
 
@@ -109,7 +137,8 @@ class MainWindow(QMainWindow):
         self.candidates_panel = CandidatesPanel(self.candidate_model)
         self.controls = self.candidates_panel.controls
         self.list_panel = ListPanel(self.entry_model)
-        self.browse_panel = BrowsePanel()
+        self.browse_panel = BrowsePanel(in_tab=True)
+        self.balance_panel = BalancePanel()
         self._build_layout()
 
         self.summary = QLabel("No catalogue open")
@@ -120,11 +149,24 @@ class MainWindow(QMainWindow):
 
         self.loader = CatalogueLoader(self)
         self.runner = SuggestionRunner(self)
+        self.balance_runner = BalanceRunner(self)
+        self.importer = TaskRunner("reading the list", self)
         self.autosaver = Autosaver(self.session, self)
         self._refresh_timer = QTimer(self)
         self._refresh_timer.setSingleShot(True)
         self._refresh_timer.setInterval(REFRESH_DEBOUNCE_MS)
         self._refresh_timer.timeout.connect(self._refresh)
+        self._balance_timer = QTimer(self)
+        self._balance_timer.setSingleShot(True)
+        self._balance_timer.setInterval(BALANCE_DEBOUNCE_MS)
+        self._balance_timer.timeout.connect(self._refresh_balance)
+        #: The balance shown is older than the list (it is computed only while visible).
+        self._balance_stale = True
+        self._targets_balanced = self.session.settings.targets
+        self.targets_dialog: TargetsDialog | None = None
+        self.export_dialog: ExportDialog | None = None
+        self.import_dialog: ImportDialog | None = None
+        self._importing: tuple[Path, Workspace] | None = None
 
         self._build_actions()
         self._build_menus()
@@ -139,10 +181,22 @@ class MainWindow(QMainWindow):
     # ----- building ------------------------------------------------------------------------
 
     def _build_layout(self) -> None:
+        # Browse and Balance share the lower left: both are about the list's works, and a
+        # curator looks at one or the other. The tabs carry the headings.
+        self.lower_tabs = QTabWidget()
+        self.lower_tabs.setDocumentMode(True)
+        self.lower_tabs.tabBar().setFont(scaled_font(self.font(), 1.15, bold=True))
+        self.lower_tabs.tabBar().setExpanding(False)
+        self.lower_tabs.addTab(self.browse_panel, "B&rowse")
+        self.lower_tabs.addTab(self.balance_panel, "Balance")
+        self.lower_tabs.setTabToolTip(0, "What the catalogue says about a work (Ctrl+4)")
+        self.lower_tabs.setTabToolTip(
+            1, "How the list is spread over kinds, decades, creators… and its targets (Ctrl+5)"
+        )
         self.left = QSplitter(Qt.Orientation.Vertical)
         self.left.setChildrenCollapsible(False)
         self.left.addWidget(self.seeds_panel)
-        self.left.addWidget(self.browse_panel)
+        self.left.addWidget(self.lower_tabs)
         self.left.setStretchFactor(0, 2)
         self.left.setStretchFactor(1, 3)
         self.columns = QSplitter(Qt.Orientation.Horizontal)
@@ -202,6 +256,26 @@ class MainWindow(QMainWindow):
             None,
             "The invented library of Hollinmere",
         )
+        self.import_action = self._action(
+            "&Import a list…",
+            self.import_list_dialog,
+            None,
+            "Add the works of a list made elsewhere (CSV, or one title a line)",
+        )
+        self.export_action = self._action(
+            "&Export list…",
+            self.export_list,
+            "Ctrl+E",
+            "Publish the list as a web page, PDF, Markdown, spreadsheet or linked data",
+        )
+        self.targets_action = self._action(
+            "Balance &targets…",
+            self.edit_targets,
+            "Ctrl+T",
+            "Say what balance this list should have",
+        )
+        for action in (self.import_action, self.export_action):
+            action.setEnabled(False)
         self.quit_action = self._action("&Quit", self.close, QKeySequence(std.Quit))
         self.undo_action = self.undo_stack.createUndoAction(self, "&Undo")
         self.undo_action.setShortcut(QKeySequence(std.Undo))
@@ -221,7 +295,8 @@ class MainWindow(QMainWindow):
                     ("&Starting titles", self._focus_search),
                     ("&Candidates", lambda: self.candidates_panel.view.setFocus()),
                     ("Your &list", lambda: self.list_panel.view.setFocus()),
-                    ("&Browse", lambda: self.browse_panel.page.setFocus()),
+                    ("&Browse", self.show_browse),
+                    ("B&alance", self.show_balance),
                 ),
                 start=1,
             )
@@ -238,6 +313,8 @@ class MainWindow(QMainWindow):
         file_menu.addMenu(self.recent_menu)
         file_menu.addActions([self.save_action, self.save_as_action])
         file_menu.addSeparator()
+        file_menu.addActions([self.import_action, self.export_action])
+        file_menu.addSeparator()
         file_menu.addActions(
             [self.catalogue_action, self.folder_action, self.demo_action, self.stop_action]
         )
@@ -253,6 +330,7 @@ class MainWindow(QMainWindow):
         lp = self.list_panel
         edit.addActions([lp.up_action, lp.down_action, lp.remove_action, lp.seed_action])
         edit.addSeparator()
+        edit.addAction(self.targets_action)
         edit.addAction(self.find_action)
 
         view = bar.addMenu("&View")
@@ -289,6 +367,8 @@ class MainWindow(QMainWindow):
 
         self.browse_panel.add_requested.connect(self._accept_one)
         self.browse_panel.seed_requested.connect(self._seed_one)
+        self.balance_panel.refresh_wanted.connect(self._balance_wanted)
+        self.balance_panel.edit_targets_requested.connect(self.edit_targets)
 
         self.loader.started.connect(self._load_started)
         self.loader.progressed.connect(self.load_status.report)
@@ -298,6 +378,9 @@ class MainWindow(QMainWindow):
         self.loader.finished.connect(self._load_finished)
         self.load_status.cancel_requested.connect(self.cancel_loading)
         self.runner.ready.connect(self._show_answer)
+        self.balance_runner.ready.connect(self._show_balance)
+        self.importer.done.connect(self._list_read)
+        self.importer.failed.connect(self._list_failed)
 
     def _set_tab_order(self) -> None:
         s, c, lp = self.seeds_panel, self.candidates_panel, self.list_panel
@@ -310,6 +393,7 @@ class MainWindow(QMainWindow):
             ctl.year_from,
             ctl.year_to,
             ctl.language,
+            ctl.fill_gaps,
             c.view,
             lp.title,
             lp.view,
@@ -342,6 +426,14 @@ class MainWindow(QMainWindow):
             self.controls.set_settings(self.session.settings)
         if event.kind in _REFRESHING:
             self.schedule_refresh()
+        if event.kind in _REBALANCING:
+            # Of the settings only the targets count (the slider and filters change nothing).
+            targets = self.session.settings.targets
+            if event.kind != "settings" or targets != self._targets_balanced:
+                self._targets_balanced = targets
+                self.schedule_balance()
+        if event.kind in ("entry-inserted", "entry-removed", "reset"):
+            self._update_actions()
 
     def _stack_changed(self, _index: int) -> None:
         if self.undo_stack.isClean():
@@ -378,6 +470,7 @@ class MainWindow(QMainWindow):
 
     def _replace_session(self, other: Session, document: Path | None) -> None:
         self.runner.invalidate()
+        self.balance_runner.invalidate()
         self.session.replace_with(other)
         self.undo_stack.clear()
         self.document = document
@@ -398,6 +491,7 @@ class MainWindow(QMainWindow):
             self.runner.invalidate()
             self.candidate_model.set_rows([])
             self.candidates_panel.set_status("")
+            self.candidates_panel.set_gaps_note("")
             self.candidates_panel.set_message(
                 "Add a starting title (on the left) and candidates that fit it appear here."
             )
@@ -419,8 +513,12 @@ class MainWindow(QMainWindow):
                     f"{'are' if missing != 1 else 'is'} not in the open catalogue; "
                     "kept on the list, left out of the suggestions."
                 )
+            gaps = [n for n in notes if n.startswith(GAPS_NOTE)]
+            self.candidates_panel.set_gaps_note(gaps[0] if gaps else "")
             if not message and notes:
-                message = " ".join(n for n in notes if not n.startswith("Ranked by"))
+                message = " ".join(n for n in notes if not n.startswith(("Ranked by", GAPS_NOTE)))
+        else:
+            self.candidates_panel.set_gaps_note("")
         self.candidates_panel.set_message(message)
         self._served(answer.seconds)
 
@@ -434,6 +532,137 @@ class MainWindow(QMainWindow):
                 f"Refreshed {self.last_refresh_seconds * 1000:.0f} ms after the change"
             )
         self.suggestions_shown.emit()
+
+    # ----- the balance ----------------------------------------------------------------------
+
+    def schedule_balance(self) -> None:
+        """The list changed: recompute the balance soon, if it is on screen (else when shown)."""
+        self._balance_stale = True
+        if self.balance_panel.isVisible():
+            self._balance_timer.start()
+
+    def _balance_wanted(self) -> None:
+        """The panel was shown or resized: refresh if the list changed or the charts no longer
+        fit its width."""
+        if self._balance_stale or self.balance_panel.needs_chart():
+            self._balance_timer.start()
+
+    def _refresh_balance(self) -> None:
+        if self.workspace is None:
+            self.balance_panel.show_nothing(NO_CATALOGUE)
+            return
+        if not self.balance_panel.isVisible():
+            return
+        self._balance_stale = False
+        self.balance_panel.set_pending()
+        self.balance_runner.request(self.workspace, self.session, self.balance_panel.chart_style())
+
+    def _show_balance(self, answer: BalanceAnswer) -> None:
+        if answer.report is None:
+            self.balance_panel.show_nothing(answer.error or "The balance could not be computed.")
+        else:
+            self.balance_panel.show_report(answer.report)
+
+    def show_balance(self) -> None:
+        self.lower_tabs.setCurrentWidget(self.balance_panel)
+        self.balance_panel.scroll.setFocus()
+
+    def show_browse(self) -> None:
+        self.lower_tabs.setCurrentWidget(self.browse_panel)
+        self.browse_panel.page.setFocus()
+
+    def edit_targets(self) -> TargetsDialog:
+        """Open the targets editor (window-modal, not blocking); Apply stores them as one step."""
+        if self.targets_dialog is not None and self.targets_dialog.isVisible():
+            self.targets_dialog.raise_()
+            return self.targets_dialog
+        dialog = TargetsDialog(self.session.settings.targets, parent=self)
+        dialog.applied.connect(self.editor.set_targets)
+        self._open_dialog(dialog, "targets_dialog")
+        return dialog
+
+    def _open_dialog(self, dialog: QDialog, name: str) -> None:
+        """Show ``dialog`` window-modal without blocking, kept as ``self.<name>`` until it
+        closes (tests and the shutdown reach it there); then it is forgotten and deleted."""
+
+        def closed(_result: int) -> None:
+            if getattr(self, name) is dialog:
+                setattr(self, name, None)
+            dialog.deleteLater()
+
+        dialog.finished.connect(closed)
+        setattr(self, name, dialog)
+        dialog.open()
+
+    # ----- import and export -----------------------------------------------------------------
+
+    def _update_actions(self) -> None:
+        self.import_action.setEnabled(self.workspace is not None)
+        self.export_action.setEnabled(self.workspace is not None and bool(self.session.entries))
+
+    def export_list(self) -> ExportDialog | None:
+        """Open the export dialog on the list as it is now."""
+        if self.workspace is None or not self.session.entries:
+            return None
+        notice = ""
+        try:
+            targets = targets_of(self.session.settings)
+        except TargetsError as exc:
+            targets = None
+            notice = f"Exported without targets: {exc}"
+        publication = publication_for(
+            self.workspace, from_session(self.workspace, self.session), targets
+        )
+        dialog = ExportDialog(
+            publication,
+            targets,
+            folder=self.document.parent if self.document else None,
+            notice=notice,
+            parent=self,
+        )
+        dialog.written.connect(
+            lambda path: self.statusBar().showMessage(f"Exported to {path}", 8000)
+        )
+        self._open_dialog(dialog, "export_dialog")
+        return dialog
+
+    def import_list_dialog(self) -> None:
+        start = str(self.document.parent) if self.document else ""
+        path, _ = QFileDialog.getOpenFileName(self, "Import a list", start, IMPORT_FILTER)
+        if path:
+            self.import_list(Path(path))
+
+    def import_list(self, path: Path) -> bool:
+        """Read and match ``path`` in the background; the import dialog follows."""
+        workspace = self.workspace
+        if workspace is None or self.importer.busy:
+            return False
+        self._importing = (Path(path), workspace)
+        self.statusBar().showMessage(f"Reading {Path(path).name}…")
+        return self.importer.start(lambda: load_list(workspace, Path(path)))
+
+    def _list_read(self, loaded: Any) -> None:
+        self.statusBar().clearMessage()
+        importing, self._importing = self._importing, None
+        if importing is None or not isinstance(loaded, LoadedList):
+            return
+        path, workspace = importing
+        if workspace is not self.workspace:  # matched against a catalogue that is closed now
+            self.statusBar().showMessage(
+                f"The catalogue changed while {path.name} was read; import it again.", 8000
+            )
+            return
+        plan = plan_import(workspace, loaded, set(self.session.entry_iris), path.name)
+        dialog = ImportDialog(plan, self)
+        dialog.accepted.connect(
+            lambda: self.editor.import_entries(plan.entries, plan.source, plan.title)
+        )
+        self._open_dialog(dialog, "import_dialog")
+
+    def _list_failed(self, message: str) -> None:
+        self._importing = None
+        self.statusBar().clearMessage()
+        QMessageBox.warning(self, "The list could not be imported", message)
 
     # ----- catalogues ------------------------------------------------------------------------
 
@@ -499,7 +728,10 @@ class MainWindow(QMainWindow):
         self.summary.setToolTip("\n".join(str(s.path) for s in workspace.sources))
         self.candidate_model.set_rows([])
         self.candidates_panel.set_message("")
+        self.balance_runner.invalidate()
+        self._update_actions()
         self.schedule_refresh()
+        self.schedule_balance()
         self.catalogue_ready.emit()
 
     # ----- files -----------------------------------------------------------------------------
@@ -654,8 +886,14 @@ class MainWindow(QMainWindow):
         """Stop the workers and timers, remember the layout, and remove the recovery file."""
         self._save_geometry()
         self._refresh_timer.stop()
+        self._balance_timer.stop()
+        for dialog in (self.export_dialog, self.import_dialog, self.targets_dialog):
+            if dialog is not None:
+                dialog.reject()
         self.loader.stop()
         self.runner.stop()
+        self.balance_runner.stop()
+        self.importer.stop()
         self.autosaver.stop()
         clear_recovery()
         self.session.unsubscribe(self._on_session)

@@ -1,9 +1,9 @@
-"""Work that must not freeze the window: opening a catalogue, and computing suggestions.
+"""Work that must not freeze the window: opening a catalogue, suggestions, the balance, exports.
 
-Both run the services in a QThread and hand results back by queued signals. The loader copies
+All run the services in a QThread and hand results back by queued signals. The loader copies
 nothing back until it has a whole workspace, so a failed or cancelled load leaves the window on
-the catalogue it had. The suggester numbers every request and drops any answer that is not the
-latest, so a quick series of edits shows only the result of the last one.
+the catalogue it had. The suggester and the balance number every request and drop any answer
+that is not the latest, so a quick series of edits shows only the result of the last one.
 """
 
 from __future__ import annotations
@@ -11,7 +11,7 @@ from __future__ import annotations
 import contextlib
 import logging
 import time
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -20,6 +20,7 @@ from PySide6.QtCore import QObject, Qt, QThread, Signal, Slot
 from curator.core.errors import Cancelled, CuratorError
 from curator.core.progress import CancelToken, Progress
 from curator.core.session import Session
+from curator.gui.balance import BalanceReport, ChartStyle, compute_balance
 from curator.gui.describe import CandidateRow, candidate_row
 from curator.services.sessions import SessionSuggestions, suggest_for_session
 from curator.services.workspace import Workspace, open_catalogue
@@ -31,14 +32,8 @@ CANDIDATE_LIMIT = 20
 
 
 def snapshot(session: Session) -> Session:
-    """A copy of what suggestions depend on, safe to read in another thread (no watchers)."""
-    return Session(
-        title=session.title,
-        seeds=list(session.seeds),
-        entries=list(session.entries),
-        dismissed=list(session.dismissed),
-        settings=session.settings,
-    )
+    """A copy of the session, safe to read in another thread (no watchers)."""
+    return session.snapshot()
 
 
 @dataclass(frozen=True)
@@ -164,17 +159,91 @@ class SuggestionAnswer:
     seconds: float
 
 
-class _SuggestJob(QObject):
+@dataclass(frozen=True)
+class BalanceAnswer:
+    generation: int
+    report: BalanceReport | None
+    error: str | None
+
+
+Stale = Callable[[], bool]
+
+
+class _NewestJob(QObject):
+    """Lives in the runner's thread; skips any request that a newer one has overtaken."""
+
     answered = Signal(object)
 
-    def __init__(self, owner: SuggestionRunner) -> None:
+    def __init__(self, owner: NewestOnlyRunner) -> None:
         super().__init__()
         self._owner = owner
 
-    @Slot(int, object, object)
-    def compute(self, generation: int, workspace: Workspace, session: Session) -> None:
+    @Slot(int, tuple)
+    def compute(self, generation: int, args: tuple[object, ...]) -> None:
         if generation != self._owner.latest:
             return  # a newer request is queued behind this one
+        answer = self._owner.work(generation, lambda: generation != self._owner.latest, *args)
+        self.answered.emit(answer)
+
+
+class NewestOnlyRunner(QObject):
+    """Computes in one long-lived thread; only the answer to the newest request is passed on.
+
+    Subclasses say what ``work`` does; it runs in the thread and is given a ``stale`` check so
+    that long work (drawing charts) can give up early when a newer request is waiting.
+    """
+
+    _request = Signal(int, tuple)
+    ready = Signal(object)
+
+    def __init__(self, name: str, parent: QObject | None = None) -> None:
+        super().__init__(parent)
+        self.latest = 0
+        self._thread = QThread()
+        self._thread.setObjectName(name)
+        self._job = _NewestJob(self)
+        self._job.moveToThread(self._thread)
+        self._request.connect(self._job.compute)
+        self._job.answered.connect(self._on_answer)
+        self._thread.finished.connect(self._job.deleteLater)
+        self._thread.start()
+
+    def work(self, generation: int, stale: Stale, *args: object) -> object:
+        raise NotImplementedError
+
+    def _ask(self, *args: object) -> int:
+        self.latest += 1
+        self._request.emit(self.latest, args)
+        return self.latest
+
+    def invalidate(self) -> None:
+        """Forget requests in flight (the catalogue or session was replaced)."""
+        self.latest += 1
+
+    @Slot(object)
+    def _on_answer(self, answer: SuggestionAnswer | BalanceAnswer) -> None:
+        if answer.generation == self.latest:
+            self.ready.emit(answer)
+
+    def stop(self) -> None:
+        self.invalidate()
+        self._thread.quit()
+        self._thread.wait()
+
+
+class SuggestionRunner(NewestOnlyRunner):
+    """Suggestions for the session; ``ready`` carries a :class:`SuggestionAnswer`."""
+
+    def __init__(self, parent: QObject | None = None) -> None:
+        super().__init__("suggestions", parent)
+
+    def request(self, workspace: Workspace, session: Session) -> int:
+        """Ask for suggestions for a snapshot of ``session``; returns the request's number."""
+        return self._ask(workspace, snapshot(session))
+
+    def work(self, generation: int, stale: Stale, *args: object) -> SuggestionAnswer:
+        workspace, session = args
+        assert isinstance(workspace, Workspace) and isinstance(session, Session)
         started = time.perf_counter()
         found: SessionSuggestions | None = None
         rows: tuple[CandidateRow, ...] = ()
@@ -189,43 +258,135 @@ class _SuggestJob(QObject):
             log.exception("suggesting failed")
             error = f"Internal error while suggesting: {exc}"
         seconds = time.perf_counter() - started
-        self.answered.emit(SuggestionAnswer(generation, found, rows, error, seconds))
+        return SuggestionAnswer(generation, found, rows, error, seconds)
 
 
-class SuggestionRunner(QObject):
-    """Computes suggestions in one long-lived thread; only the newest request is answered."""
+class BalanceRunner(NewestOnlyRunner):
+    """The list's audit, targets and charts; ``ready`` carries a :class:`BalanceAnswer`.
 
-    _request = Signal(int, object, object)
-    ready = Signal(object)  # SuggestionAnswer
+    Drawing the charts takes matplotlib about half a second (its constrained layout measures
+    every label), far too long for the GUI thread, so the figure is drawn here and the window
+    only copies the finished pixels to the screen.
+    """
 
     def __init__(self, parent: QObject | None = None) -> None:
+        super().__init__("balance", parent)
+
+    def request(self, workspace: Workspace, session: Session, style: ChartStyle | None) -> int:
+        """Audit a snapshot of ``session``; draw charts in ``style`` (None: no charts)."""
+        return self._ask(workspace, snapshot(session), style)
+
+    def work(self, generation: int, stale: Stale, *args: object) -> BalanceAnswer:
+        workspace, session, style = args
+        assert isinstance(workspace, Workspace) and isinstance(session, Session)
+        assert style is None or isinstance(style, ChartStyle)
+        try:
+            report = compute_balance(workspace, session, style, stale)
+        except CuratorError as exc:
+            return BalanceAnswer(generation, None, str(exc))
+        except Exception as exc:
+            log.exception("auditing the list failed")
+            return BalanceAnswer(generation, None, f"Internal error while auditing: {exc}")
+        return BalanceAnswer(generation, report, None)
+
+
+class _Task(QObject):
+    done = Signal(object)
+    failed = Signal(str)
+    over = Signal()
+
+    def __init__(self, work: Callable[[], object], what: str) -> None:
+        super().__init__()
+        self._work = work
+        self._what = what
+
+    @Slot()
+    def run(self) -> None:
+        try:
+            result = self._work()
+        except CuratorError as exc:
+            self.failed.emit(str(exc))
+        except Exception as exc:  # a bug, not bad input: say so plainly, log the details
+            log.exception("%s failed", self._what)
+            self.failed.emit(f"curator could not finish {self._what} (an internal error: {exc}).")
+        else:
+            self.done.emit(result)
+        finally:
+            self.over.emit()
+
+
+class TaskRunner(QObject):
+    """Runs one function at a time in its own thread (writing an export, reading a list).
+
+    ``done`` carries the function's result; ``failed`` a CuratorError's message (or a plain
+    sentence about an internal error), never a traceback. Both come after the thread has
+    ended, so a handler may start the next task straight away.
+    """
+
+    done = Signal(object)
+    failed = Signal(str)
+
+    def __init__(self, what: str, parent: QObject | None = None) -> None:
         super().__init__(parent)
-        self.latest = 0
-        self._thread = QThread()
-        self._thread.setObjectName("suggestions")
-        self._job = _SuggestJob(self)
-        self._job.moveToThread(self._thread)
-        self._request.connect(self._job.compute)
-        self._job.answered.connect(self._on_answer)
-        self._thread.finished.connect(self._job.deleteLater)
-        self._thread.start()
+        self._what = what
+        self._thread: QThread | None = None
+        self._task: _Task | None = None
+        self._outcome: tuple[bool, object] | None = None
 
-    def request(self, workspace: Workspace, session: Session) -> int:
-        """Ask for suggestions for a snapshot of ``session``; returns the request's number."""
-        self.latest += 1
-        self._request.emit(self.latest, workspace, snapshot(session))
-        return self.latest
+    @property
+    def busy(self) -> bool:
+        return self._thread is not None
 
-    def invalidate(self) -> None:
-        """Forget requests in flight (the catalogue or session was replaced)."""
-        self.latest += 1
+    def start(self, work: Callable[[], object]) -> bool:
+        """Run ``work`` in the background; False while an earlier task is still running."""
+        if self.busy:
+            return False
+        thread = QThread()
+        thread.setObjectName(self._what)
+        task = _Task(work, self._what)
+        task.moveToThread(thread)
+        thread.started.connect(task.run)
+        task.done.connect(self._succeeded)
+        task.failed.connect(self._failed)
+        task.over.connect(thread.quit, Qt.ConnectionType.DirectConnection)
+        thread.finished.connect(self._cleanup)
+        self._thread, self._task, self._outcome = thread, task, None
+        thread.start()
+        return True
 
+    # Queued to this object's thread, so they arrive before the thread's ``finished``.
     @Slot(object)
-    def _on_answer(self, answer: SuggestionAnswer) -> None:
-        if answer.generation == self.latest:
-            self.ready.emit(answer)
+    def _succeeded(self, result: object) -> None:
+        self._outcome = (True, result)
+
+    @Slot(str)
+    def _failed(self, message: str) -> None:
+        self._outcome = (False, message)
+
+    @Slot()
+    def _cleanup(self) -> None:
+        thread, task, outcome = self._thread, self._task, self._outcome
+        self._thread = self._task = self._outcome = None
+        if task is not None:
+            task.deleteLater()
+        if thread is not None:
+            thread.deleteLater()
+        if outcome is not None:
+            ok, value = outcome
+            if ok:
+                self.done.emit(value)
+            else:
+                self.failed.emit(str(value))
 
     def stop(self) -> None:
-        self.invalidate()
-        self._thread.quit()
-        self._thread.wait()
+        """Wait for the running task (tasks are short and cannot be cancelled halfway); its
+        result is dropped."""
+        thread, task = self._thread, self._task
+        if thread is not None:
+            thread.finished.disconnect(self._cleanup)
+            if task is not None:
+                task.done.disconnect(self._succeeded)
+                task.failed.disconnect(self._failed)
+            thread.wait()
+            self._thread = self._task = self._outcome = None
+            thread.deleteLater()

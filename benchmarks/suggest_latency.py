@@ -23,11 +23,11 @@ from pathlib import Path
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from synthetic import write_synthetic  # noqa: E402
+from synthetic import write_synthetic
 
-from curator.core.baseline import run_shared_count_query  # noqa: E402
-from curator.core.suggest import SuggestSettings  # noqa: E402
-from curator.services.workspace import open_catalogue  # noqa: E402
+from curator.core.baseline import run_shared_count_query
+from curator.core.suggest import SuggestSettings
+from curator.services.workspace import open_catalogue
 
 ABOUT = "https://schema.org/about"
 

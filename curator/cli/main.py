@@ -222,6 +222,12 @@ def main(argv: Sequence[str] | None = None) -> int:
     except CuratorError as exc:
         sys.stderr.write(f"curator: {exc}\n")
         return EXIT_BAD_INPUT
+    except OSError as exc:
+        # A file to write that cannot be (no space, no permission, a folder in the way):
+        # the curator's to fix, not a bug.
+        where = f"{exc.filename}: " if exc.filename else ""
+        sys.stderr.write(f"curator: {where}cannot be written or read ({exc.strerror or exc}).\n")
+        return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         sys.stderr.write("curator: interrupted\n")
         return 130

@@ -72,6 +72,8 @@ class Explainer:
         # dictionary look-ups beat sparse indexing by far.
         self._weights = [_row_dict(index.vectors, i) for i in self.context]
         self._direct = [set(_row_dict(index.direct, i)) for i in self.context]
+        self._shared = set().union(*self._weights) if self._weights else set()
+        self._words = _feature_words(index)
 
     # ----- shared themes ---------------------------------------------------------------
 
@@ -82,19 +84,28 @@ class Explainer:
         row = _row_dict(index.vectors, position)
         direct_row = set(_row_dict(index.direct, position))
         found: list[SharedTheme] = []
+        shared, words = self._shared, self._words
         for column, value in row.items():
-            holders = [h for h, weights in enumerate(self._weights) if column in weights]
-            if not holders:
+            if column not in shared:
                 continue
+            holders = [h for h, weights in enumerate(self._weights) if column in weights]
             peak = max(self._weights[h][column] for h in holders)
             direct_holders = [h for h in holders if column in self._direct[h]]
-            feature = index.features[column]
+            text = words.get(column)
+            if text is None:
+                feature = index.features[column]
+                text = words[column] = (
+                    feature.value if not feature.value.startswith(LITERAL_PREFIX) else "",
+                    index.label(feature.value),
+                    feature.path,
+                    index.path_label(feature.path),
+                )
             found.append(
                 SharedTheme(
-                    iri=feature.value if not feature.value.startswith(LITERAL_PREFIX) else "",
-                    label=index.label(feature.value),
-                    property=feature.path,
-                    property_label=index.path_label(feature.path),
+                    iri=text[0],
+                    label=text[1],
+                    property=text[2],
+                    property_label=text[3],
                     weight=float(value * peak),
                     shared_with=tuple(index.records[self.context[h]].label for h in holders),
                     broader=column not in direct_row or not direct_holders,
@@ -235,6 +246,16 @@ class Explainer:
             return "Close to the seeds through a longer chain of shared themes and creators."
         sentence = ", and ".join(clauses) if len(clauses) == 2 else clauses[0]
         return sentence[0].upper() + sentence[1:] + "."
+
+
+def _feature_words(index: Index) -> dict[int, tuple[str, str, str, str]]:
+    """Per feature column, what a shared theme says of it (IRI, label, property and its
+    label), worked out once per index: the same few features come back in every explanation.
+    Kept on the index, which is never changed once built."""
+    words = index.__dict__.get("_feature_words")
+    if words is None:
+        words = index.__dict__["_feature_words"] = {}
+    return words
 
 
 def _row_dict(matrix: sp.csr_matrix, row: int) -> dict[int, float]:

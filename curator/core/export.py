@@ -5,7 +5,9 @@ Everything that comes from the data or from the curator is escaped for its forma
 a spreadsheet would run as a formula (starting with ``=``, ``+``, ``-``, ``@``, tab or carriage
 return; the OWASP guidance on CSV injection) is prefixed with an apostrophe. The linked-data
 exports describe the list as a schema.org ``ItemList`` of ``ListItem``s with ``position`` and
-``description``, so a catalogue can take it back.
+``description``, so a catalogue can take it back. A work known only as a blank node (``_:id``)
+or by something that is not an IRI is written as a blank node, with its title, rather than
+refused.
 """
 
 from __future__ import annotations
@@ -205,7 +207,7 @@ def to_csv(publication: Publication) -> str:
                 str(entry.position),
                 neutralise_cell(entry.title),
                 neutralise_cell("; ".join(entry.creators)),
-                "" if entry.year is None else str(entry.year),
+                "" if entry.year is None else neutralise_cell(str(entry.year)),
                 neutralise_cell(entry.kind),
                 neutralise_cell(entry.rationale),
                 neutralise_cell(entry.note),
@@ -220,6 +222,28 @@ def to_csv(publication: Publication) -> str:
 
 def _description(entry: PublishedEntry) -> str:
     return entry.rationale + (f" Note: {entry.note}" if entry.note else "")
+
+
+def _work_node(iri: str) -> ox.NamedNode | ox.BlankNode:
+    """The node of a listed work: its IRI, or a blank node when it has no usable IRI (a work
+    that is a blank node in the catalogue, or an entry whose IRI is malformed)."""
+    if iri.startswith("_:"):
+        try:
+            return ox.BlankNode(iri[2:])
+        except ValueError:
+            return ox.BlankNode()
+    try:
+        return ox.NamedNode(iri)
+    except ValueError:
+        return ox.BlankNode()
+
+
+def _jsonld_id(iri: str) -> dict[str, str]:
+    """``{"@id": iri}`` when the IRI (or blank node label) reads back as the same node."""
+    node = _work_node(iri)
+    if isinstance(node, ox.NamedNode):
+        return {"@id": node.value}
+    return {"@id": "_:" + node.value} if iri.startswith("_:") and iri[2:] == node.value else {}
 
 
 def item_list_triples(publication: Publication, iri: str | None = None) -> list[ox.Triple]:
@@ -243,7 +267,7 @@ def item_list_triples(publication: Publication, iri: str | None = None) -> list[
     ]
     for entry in publication.entries:
         item = ox.NamedNode(f"{node.value}#item-{entry.position}")
-        work = ox.NamedNode(entry.iri)
+        work = _work_node(entry.iri)
         triples += [
             ox.Triple(node, p("itemListElement"), item),
             ox.Triple(item, ox.NamedNode(RDF.type), p("ListItem")),
@@ -287,7 +311,7 @@ def to_jsonld(publication: Publication, iri: str | None = None) -> str:
                 "@type": "ListItem",
                 "position": entry.position,
                 **({"description": _description(entry)} if _description(entry) else {}),
-                "item": {"@id": entry.iri, "name": entry.title},
+                "item": {**_jsonld_id(entry.iri), "name": entry.title},
             }
             for entry in publication.entries
         ],

@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import re
 from collections import defaultdict
-from collections.abc import Iterable, Mapping, Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -23,13 +23,9 @@ from curator.core.profile import PROPERTY_WORDS, Profile, ThemeProperty
 from curator.core.progress import Progress, silent
 from curator.core.reading import (
     LABEL_PROPERTIES,
+    CatalogueReader,
+    StatementColumns,
     WorkStatements,
-    read_edges,
-    read_labels,
-    read_outgoing,
-    read_types,
-    read_works,
-    subclass_pairs,
 )
 from curator.core.similarity import tfidf_vectors
 from curator.core.vocab import BF, SCHEMA, SCHEMA_HTTP
@@ -142,35 +138,41 @@ def build_index(
     statements: WorkStatements | None = None,
     types: dict[str, set[str]] | None = None,
     progress: Progress | None = None,
+    reader: CatalogueReader | None = None,
 ) -> Index:
     """Read the catalogue through ``profile`` and build the matrices and the graph.
+
+    ``statements``, ``types`` and a ``reader`` that read them may be passed in when the caller
+    has them already (profile detection reads the same).
 
     Raises:
         Cancelled: the progress token was cancelled.
     """
     progress = progress or silent()
+    reader = reader or CatalogueReader(catalogue)
     if statements is None:
-        statements = read_works(
-            catalogue, profile.work_classes, profile.instance_links, progress.part(0.0, 0.4)
+        statements = reader.work_statements(
+            profile.work_classes, profile.instance_links, progress.part(0.0, 0.4)
         )
     progress.report("Reading labels", 0.4)
     label_props = tuple(dict.fromkeys((*profile.label_properties, *LABEL_PROPERTIES)))
-    candidates = read_labels(catalogue, label_props)
-    types = types if types is not None else read_types(catalogue)
+    candidates = reader.labels(label_props)
+    types = types if types is not None else reader.types()
     progress.report("Reading hierarchy", 0.5)
-    parents = _read_parents(catalogue, profile.hierarchy)
+    parents = _read_parents(reader, profile.hierarchy)
     progress.report("Building features", 0.6)
     works = statements.works
     position = {w: i for i, w in enumerate(works)}
-    labels = {key: best_label(c, profile.languages) or "" for key, c in candidates.items()}
-    records = _records(statements, profile, works, candidates, labels, types)
+    labels = _best_labels(candidates, profile.languages)
+    columns = statements.columns()
+    records = _records(columns, profile, works, candidates, labels, types)
     progress.report("Building features", 0.7)
-    features, raw, direct, weights = _feature_matrix(statements, profile, position, parents)
+    features, raw, direct, weights = _feature_matrix(columns, profile, parents)
     vectors, idf = tfidf_vectors(raw, weights)
     progress.report("Building graph", 0.8)
     creators = {c for r in records for c in r.creators}
-    creator_edges = _creator_edges(catalogue, profile, creators)
-    graph, nodes = _graph(statements, profile, works, parents, creator_edges)
+    creator_edges = _creator_edges(reader, profile, creators)
+    graph, nodes = _graph(columns, profile, parents, creator_edges)
     index = Index(
         profile=profile,
         works=works,
@@ -187,28 +189,38 @@ def build_index(
         labels=labels,
         types=types,
         parents=parents,
-        class_parents=_class_parents(catalogue),
+        class_parents=_class_parents(reader),
         triple_count=catalogue.triple_count,
     )
-    _explanation_tables(index, statements, creator_edges)
+    _explanation_tables(index, columns, creator_edges)
     progress.report("Index ready", 1.0)
     return index
 
 
-def _read_parents(catalogue: Catalogue, hierarchy: Sequence[str]) -> dict[str, set[str]]:
+def _best_labels(
+    candidates: Mapping[str, list[LabelCandidate]], languages: Sequence[str]
+) -> dict[str, str]:
+    """The label to show for every node (one candidate needs no choosing)."""
+    return {
+        key: (c[0].text if len(c) == 1 else best_label(c, languages)) or ""
+        for key, c in candidates.items()
+    }
+
+
+def _read_parents(reader: CatalogueReader, hierarchy: Sequence[str]) -> dict[str, set[str]]:
     parents: dict[str, set[str]] = defaultdict(set)
     for prop in hierarchy:
         inverse = prop.startswith("^")
-        for a, _p, b in read_edges(catalogue, [prop.lstrip("^")]):
+        for a, _p, b in reader.edges([prop.lstrip("^")]):
             child, parent = (b, a) if inverse else (a, b)
             if child != parent:
                 parents[child].add(parent)
     return dict(parents)
 
 
-def _class_parents(catalogue: Catalogue) -> dict[str, set[str]]:
+def _class_parents(reader: CatalogueReader) -> dict[str, set[str]]:
     found: dict[str, set[str]] = defaultdict(set)
-    for child, parent in subclass_pairs(catalogue):
+    for child, parent in reader.subclass_pairs():
         found[child].add(parent)
     return dict(found)
 
@@ -234,68 +246,151 @@ def _literal_key(lexical: str) -> str:
     return LITERAL_PREFIX + " ".join(lexical.split()).lower()
 
 
-def _theme_values(
-    statements: WorkStatements, themes: Mapping[str, ThemeProperty]
-) -> Iterable[tuple[str, str, str]]:
-    """(work, path, value key) for every theme statement, literals given a text key."""
-    for work, path, obj in statements.links:
-        if path in themes:
-            yield work, path, obj
-    for work, path, lexical, _lang in statements.literals:
-        if path in themes and lexical.strip():
-            yield work, path, _literal_key(lexical)
+@dataclass
+class _ThemeRows:
+    """Every theme statement as (work, path, value) numbers: first the links, then the literals
+    (given a text key), in statement order. Values number ``keys``: the statements' node values
+    first, then literal keys and anything added later (ancestors)."""
+
+    work: np.ndarray
+    path: np.ndarray
+    value: np.ndarray
+    keys: list[str]
+    lookup: dict[str, int] | None = None
+
+    def number(self, key: str) -> int:
+        """The number of a value key, adding it when new."""
+        if self.lookup is None:
+            self.lookup = {k: i for i, k in enumerate(self.keys)}
+        found = self.lookup.get(key)
+        if found is None:
+            found = self.lookup[key] = len(self.keys)
+            self.keys.append(key)
+        return found
+
+
+def _theme_rows(columns: StatementColumns, themes: Mapping[str, ThemeProperty]) -> _ThemeRows:
+    is_theme = columns.path_ids(themes)
+    links = is_theme[columns.link_path]
+    literals = np.flatnonzero(is_theme[columns.literal_path])
+    keys = list(columns.values)
+    literal_keys: dict[int, int] = {}
+    lookup: dict[str, int] = {}
+    lexicals = columns.lexicals
+    for x in np.unique(columns.literal_lexical[literals]).tolist():
+        lexical = lexicals[x]
+        if lexical.strip():
+            key = _literal_key(lexical)
+            found = lookup.get(key)
+            if found is None:
+                found = lookup[key] = len(keys)
+                keys.append(key)
+            literal_keys[x] = found
+    literal_values = np.array(
+        [literal_keys.get(x, -1) for x in columns.literal_lexical[literals].tolist()],
+        dtype=np.int64,
+    )
+    kept = literals[literal_values >= 0]
+    return _ThemeRows(
+        work=np.concatenate([columns.link_work[links], columns.literal_work[kept]]),
+        path=np.concatenate([columns.link_path[links], columns.literal_path[kept]]),
+        value=np.concatenate([columns.link_value[links], literal_values[literal_values >= 0]]),
+        keys=keys,
+    )
+
+
+def _first_appearance(keys: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """The distinct keys in order of first appearance, and each entry's number among them."""
+    distinct, first, inverse = np.unique(keys, return_index=True, return_inverse=True)
+    order = np.argsort(first, kind="stable")
+    number = np.empty(len(distinct), dtype=np.int64)
+    number[order] = np.arange(len(distinct))
+    return distinct[order], number[inverse.ravel()]
 
 
 def _feature_matrix(
-    statements: WorkStatements,
+    columns: StatementColumns,
     profile: Profile,
-    position: Mapping[str, int],
     parents: Mapping[str, set[str]],
 ) -> tuple[list[Feature], sp.csr_matrix, sp.csr_matrix, np.ndarray]:
+    """Works x features: 1 for a value a work has, ``decay ** level`` for an ancestor of one
+    (the larger when both), columns in order of first appearance (a value, then its
+    ancestors, statement by statement)."""
     themes = {t.path: t for t in profile.themes}
-    column: dict[Feature, int] = {}
-    cells: dict[tuple[int, int], float] = {}
-    direct_cells: set[tuple[int, int]] = set()
-    ancestor_cache: dict[str, dict[str, int]] = {}
+    rows = _theme_rows(columns, themes)
+    n_works = columns.n_works
+    if len(rows.work) and int(rows.work.max()) >= n_works:
+        missing = columns.keys[int(rows.work.max())]
+        raise KeyError(missing)
     decay = profile.hierarchy_decay
-
-    def col(feature: Feature) -> int:
-        found = column.get(feature)
-        if found is None:
-            found = column[feature] = len(column)
-        return found
-
-    for work, path, value in _theme_values(statements, themes):
-        row = position[work]
-        key = (row, col(Feature(path, value)))
-        cells[key] = 1.0
-        direct_cells.add(key)
-        if value.startswith(LITERAL_PREFIX) or decay <= 0:
-            continue
-        ups = ancestor_cache.get(value)
-        if ups is None:
-            ups = ancestor_cache[value] = ancestors(value, parents)
-        for ancestor, level in ups.items():
-            akey = (row, col(Feature(path, ancestor)))
-            cells[akey] = max(cells.get(akey, 0.0), decay**level)
-    features = list(column)
-    shape = (len(position), len(features))
-    raw = _sparse(cells, shape)
-    direct = _sparse(dict.fromkeys(direct_cells, 1.0), shape)
-    weights = np.array([themes[f.path].weight for f in features], dtype=np.float64)
+    # The ancestors of each distinct node value, as one ragged array over value numbers
+    # (values in increasing number, each one's ancestors in the order found).
+    up_counts: dict[int, int] = {}
+    up_value: list[int] = []
+    up_level: list[int] = []
+    if decay > 0 and parents:
+        for v in np.unique(rows.value[rows.value < len(columns.values)]).tolist():
+            ups = ancestors(rows.keys[v], parents)
+            if ups:
+                up_counts[v] = len(ups)
+                for ancestor, level in ups.items():
+                    up_value.append(rows.number(ancestor))
+                    up_level.append(level)
+    counts = np.zeros(len(rows.keys), dtype=np.int64)
+    counts[list(up_counts)] = list(up_counts.values())
+    up_start = np.concatenate([[0], np.cumsum(counts)])
+    # One entry per feature cell as the statements reach it: a value, then its ancestors.
+    values = rows.value
+    per_row = 1 + counts[values]
+    total = int(per_row.sum())
+    step = np.arange(total) - np.repeat(np.cumsum(per_row) - per_row, per_row)
+    e_work = np.repeat(rows.work, per_row)
+    e_path = np.repeat(rows.path, per_row)
+    e_value = np.repeat(values, per_row)
+    e_level = np.zeros(total, dtype=np.int8)
+    is_up = step > 0
+    if is_up.any():
+        slot = up_start[e_value[is_up]] + step[is_up] - 1
+        e_value[is_up] = np.array(up_value, dtype=np.int64)[slot]
+        e_level[is_up] = np.array(up_level, dtype=np.int64)[slot]
+    n_keys = max(1, len(rows.keys))
+    distinct, e_column = _first_appearance(e_path.astype(np.int64) * n_keys + e_value)
+    del e_path, e_value, step, is_up
+    paths = columns.paths
+    features = [Feature(paths[k // n_keys], rows.keys[k % n_keys]) for k in distinct.tolist()]
+    strength = np.array(
+        [1.0, *(decay**level for level in range(1, MAX_ANCESTOR_LEVELS + 1))], dtype=np.float64
+    )
+    shape = (n_works, len(features))
+    raw = _max_cells(e_work, e_column, strength[e_level], shape)
+    direct_rows = e_level == 0
+    direct = _max_cells(
+        e_work[direct_rows], e_column[direct_rows], np.ones(int(direct_rows.sum())), shape
+    )
+    path_weight = np.array([themes[p].weight if p in themes else 0.0 for p in paths])
+    weights = path_weight[distinct // n_keys].astype(np.float64) if len(distinct) else np.zeros(0)
     return features, raw, direct, weights
 
 
-def _sparse(cells: Mapping[tuple[int, int], float], shape: tuple[int, int]) -> sp.csr_matrix:
-    if not cells:
+def _max_cells(
+    rows: np.ndarray, cols: np.ndarray, values: np.ndarray, shape: tuple[int, int]
+) -> sp.csr_matrix:
+    """A sparse matrix holding, for each (row, column) named, the largest value given for it."""
+    if len(rows) == 0:
         return sp.csr_matrix(shape, dtype=np.float64)
-    keys = np.fromiter((k for pair in cells for k in pair), dtype=np.int64).reshape(-1, 2)
-    values = np.fromiter(cells.values(), dtype=np.float64, count=len(cells))
-    return sp.csr_matrix((values, (keys[:, 0], keys[:, 1])), shape=shape)
+    keys = rows.astype(np.int64) * max(1, shape[1]) + cols
+    order = np.argsort(keys, kind="stable")
+    keys = keys[order]
+    starts = np.flatnonzero(np.concatenate([[True], keys[1:] != keys[:-1]]))
+    largest = np.maximum.reduceat(values[order], starts)
+    cells = keys[starts]
+    return sp.csr_matrix(
+        (largest, (cells // max(1, shape[1]), cells % max(1, shape[1]))), shape=shape
+    )
 
 
 def _records(
-    statements: WorkStatements,
+    columns: StatementColumns,
     profile: Profile,
     works: Sequence[str],
     candidates: Mapping[str, list[LabelCandidate]],
@@ -304,116 +399,222 @@ def _records(
 ) -> list[WorkRecord]:
     creator_paths = [t.path for t in profile.themes_with_role("creator")]
     creator_rank = {p: i for i, p in enumerate(creator_paths)}
-    creators: dict[str, list[tuple[int, str]]] = defaultdict(list)
-    audiences: dict[str, list[str]] = defaultdict(list)
-    languages: dict[str, list[str]] = defaultdict(list)
-    years: dict[str, list[tuple[int, int]]] = defaultdict(list)
     year_rank = {p: i for i, p in enumerate(profile.year_properties)}
     audience_paths = set(profile.audience_properties)
     language_paths = set(profile.language_properties)
-    for work, path, obj in statements.links:
-        if path in creator_rank:
-            creators[work].append((creator_rank[path], obj))
-        if path in audience_paths:
-            audiences[work].append(obj)
-        if path in language_paths:
-            languages[work].append(labels.get(obj) or iri_tail(obj))
-    for work, path, lexical, _lang in statements.literals:
-        if path in year_rank:
-            match = _YEAR.search(lexical)
-            if match:
-                years[work].append((year_rank[path], int(match.group(1))))
-        if path in language_paths:
-            languages[work].append(lexical.strip().lower())
-        if path in audience_paths:
-            audiences[work].append(_literal_key(lexical))
+    paths, values, lexicals = columns.paths, columns.values, columns.lexicals
+    creators: dict[int, list[tuple[int, str]]] = defaultdict(list)
+    audiences: dict[int, list[str]] = defaultdict(list)
+    languages: dict[int, list[str]] = defaultdict(list)
+    years: dict[int, list[tuple[int, int]]] = defaultdict(list)
+
+    def link_rows(wanted: Mapping[str, object] | set[str]) -> zip[tuple[int, int, int]]:
+        keep = columns.path_ids(wanted)[columns.link_path]
+        return zip(
+            columns.link_work[keep].tolist(),
+            columns.link_path[keep].tolist(),
+            columns.link_value[keep].tolist(),
+            strict=True,
+        )
+
+    def literal_rows(wanted: Mapping[str, object] | set[str]) -> zip[tuple[int, int, int]]:
+        keep = columns.path_ids(wanted)[columns.literal_path]
+        return zip(
+            columns.literal_work[keep].tolist(),
+            columns.literal_path[keep].tolist(),
+            columns.literal_lexical[keep].tolist(),
+            strict=True,
+        )
+
+    # Each kind of row in statement order, links before literals, as the lists were read.
+    if creator_rank:
+        rank_of = [creator_rank.get(p, -1) for p in paths]
+        for w, p, v in link_rows(creator_rank):
+            creators[w].append((rank_of[p], values[v]))
+    if audience_paths:
+        for w, _p, v in link_rows(audience_paths):
+            audiences[w].append(values[v])
+    if language_paths:
+        language_names: dict[int, str] = {}
+        for w, _p, v in link_rows(language_paths):
+            name = language_names.get(v)
+            if name is None:
+                name = language_names[v] = labels.get(values[v]) or iri_tail(values[v])
+            languages[w].append(name)
+    if year_rank:
+        year_of: dict[int, int | None] = {}
+        rank_of = [year_rank.get(p, -1) for p in paths]
+        for w, p, x in literal_rows(year_rank):
+            if x in year_of:
+                year = year_of[x]
+            else:
+                match = _YEAR.search(lexicals[x])
+                year = year_of[x] = int(match.group(1)) if match else None
+            if year is not None:
+                years[w].append((rank_of[p], year))
+    if language_paths:
+        for w, _p, x in literal_rows(language_paths):
+            languages[w].append(lexicals[x].strip().lower())
+    if audience_paths:
+        for w, _p, x in literal_rows(audience_paths):
+            audiences[w].append(_literal_key(lexicals[x]))
     work_classes = set(profile.work_classes)
     records = []
-    for work in works:
-        kinds = sorted(types.get(work, set()) & work_classes)
-        if len(kinds) > 1:
-            kinds = [k for k in kinds if k not in GENERIC_WORK_CLASSES] or kinds
-        titles = tuple(dict.fromkeys(c.text for c in candidates.get(work, ()) if c.text.strip()))
+    no_types: set[str] = set()
+    for i, work in enumerate(works):
+        classes = types.get(work, no_types)
+        if len(classes) == 1:
+            kinds = [c for c in classes if c in work_classes]
+        else:
+            kinds = sorted(classes & work_classes)
+            if len(kinds) > 1:
+                kinds = [k for k in kinds if k not in GENERIC_WORK_CLASSES] or kinds
+        found = candidates.get(work, ())
+        if len(found) == 1:
+            text = found[0].text
+            titles: tuple[str, ...] = (text,) if text.strip() else ()
+        else:
+            titles = tuple(dict.fromkeys(c.text for c in found if c.text.strip()))
         label = labels.get(work) or (titles[0] if titles else iri_tail(work))
-        year_values = sorted(years.get(work, []))
+        year_values = years.get(i)
+        if year_values is None:
+            year = None
+        elif len(year_values) == 1:
+            year = year_values[0][1]
+        else:
+            year_values.sort()
+            year = min(y for r, y in year_values if r == year_values[0][0])
+        found_creators = creators.get(i)
+        if found_creators is None:
+            creator_keys: tuple[str, ...] = ()
+        elif len(found_creators) == 1:
+            creator_keys = (found_creators[0][1],)
+        else:
+            creator_keys = tuple(dict.fromkeys(c for _r, c in sorted(found_creators)))
         records.append(
             WorkRecord(
                 iri=work,
                 label=label,
                 titles=titles or (label,),
                 kinds=tuple(kinds),
-                creators=tuple(dict.fromkeys(c for _r, c in sorted(creators.get(work, [])))),
-                year=min(y for r, y in year_values if r == year_values[0][0])
-                if year_values
-                else None,
-                languages=tuple(dict.fromkeys(languages.get(work, []))),
-                audiences=tuple(dict.fromkeys(audiences.get(work, []))),
+                creators=creator_keys,
+                year=year,
+                languages=_distinct(languages.get(i)),
+                audiences=_distinct(audiences.get(i)),
             )
         )
     return records
 
 
+def _distinct(items: list[str] | None) -> tuple[str, ...]:
+    """The items in order, each once."""
+    if not items:
+        return ()
+    if len(items) == 1:
+        return (items[0],)
+    return tuple(dict.fromkeys(items))
+
+
 def _creator_edges(
-    catalogue: Catalogue, profile: Profile, creators: set[str]
+    reader: CatalogueReader, profile: Profile, creators: set[str]
 ) -> list[tuple[str, str, str, float]]:
     weights = {link.path: link.weight for link in profile.creator_links}
     if not weights or not creators:
         return []
     return [
         (a, p, b, weights[p])
-        for a, p, b in read_outgoing(catalogue, sorted(creators))
+        for a, p, b in reader.outgoing(sorted(creators))
         if p in weights and b in creators and a != b
     ]
 
 
 def _graph(
-    statements: WorkStatements,
+    columns: StatementColumns,
     profile: Profile,
-    works: Sequence[str],
     parents: Mapping[str, set[str]],
     creator_edges: Sequence[tuple[str, str, str, float]],
 ) -> tuple[sp.csr_matrix, list[str]]:
-    """The undirected item-entity graph; works are the first ``len(works)`` nodes."""
+    """The undirected item-entity graph; works are the first ``len(works)`` nodes, then the
+    values of the themes in order of first appearance, then what the hierarchy and the links
+    between creators add."""
+    themes = {t.path: t for t in profile.themes}
+    rows = _theme_rows(columns, themes)
+    n_works = columns.n_works
+    works = columns.keys[:n_works]
+    path_weight = np.array([themes[p].weight if p in themes else 0.0 for p in columns.paths])
+    # A value that is itself a work keeps the work's node.
+    value_work = np.full(len(rows.keys), -1, dtype=np.int64)
+    position = {w: i for i, w in enumerate(works)}
+    for v, key in enumerate(rows.keys):
+        found = position.get(key)
+        if found is not None:
+            value_work[v] = found
+    weight = path_weight[rows.path]
+    kept = (weight > 0) & (value_work[rows.value] != rows.work)
+    edge_work, edge_value, edge_weight = rows.work[kept], rows.value[kept], weight[kept]
+    # Node numbers of the values, in order of first appearance (works keep their own).
+    is_value = value_work[edge_value] < 0
+    distinct, number = _first_appearance(edge_value[is_value])
+    value_node = np.full(len(rows.keys), -1, dtype=np.int64)
+    value_node[distinct] = n_works + np.arange(len(distinct))
+    value_node[value_work >= 0] = value_work[value_work >= 0]
+    _ = number
     node: dict[str, int] = {w: i for i, w in enumerate(works)}
-    rows: list[int] = []
-    cols: list[int] = []
-    vals: list[float] = []
+    for v in distinct.tolist():
+        node[rows.keys[v]] = len(node)
+    source: list[np.ndarray] = [edge_work]
+    target: list[np.ndarray] = [value_node[edge_value]]
+    strength: list[np.ndarray] = [edge_weight]
 
-    def add(a: str, b: str, weight: float) -> None:
-        if weight <= 0 or a == b:
+    extra_a: list[int] = []
+    extra_b: list[int] = []
+    extra_w: list[float] = []
+
+    def add(a: str, b: str, w: float) -> None:
+        if w <= 0 or a == b:
             return
         ia = node.setdefault(a, len(node))
         ib = node.setdefault(b, len(node))
-        rows.append(ia)
-        cols.append(ib)
-        vals.append(weight)
+        extra_a.append(ia)
+        extra_b.append(ib)
+        extra_w.append(w)
 
-    themes = {t.path: t for t in profile.themes}
-    values_seen: set[str] = set()
-    for work, path, value in _theme_values(statements, themes):
-        add(work, value, themes[path].weight)
-        values_seen.add(value)
     decay = profile.hierarchy_decay
-    frontier = set(values_seen)
+    seen_values = [rows.keys[v] for v in _first_appearance(rows.value)[0].tolist()]
+    values_seen = set(seen_values)
     linked: set[str] = set()
+    frontier = seen_values
     while frontier:
-        following = set()
+        following: dict[str, None] = {}
         for child in frontier:
-            for parent in parents.get(child, ()):
+            for parent in sorted(parents.get(child, ())):
                 add(child, parent, decay)
                 if parent not in linked and parent not in values_seen:
-                    following.add(parent)
+                    following[parent] = None
             linked.add(child)
-        frontier = following - linked
+        frontier = [f for f in following if f not in linked]
     links = {link.path: link.weight for link in profile.work_links}
-    work_set = set(node[w] for w in works)
-    for work, path, obj in statements.links:
-        if path in links and obj in node and node[obj] in work_set:
-            add(work, obj, links[path])
-    for a, _p, b, weight in creator_edges:
-        add(a, b, weight)
+    if links:
+        keep = columns.path_ids(links)[columns.link_path]
+        for w, p, v in zip(
+            columns.link_work[keep].tolist(),
+            columns.link_path[keep].tolist(),
+            columns.link_value[keep].tolist(),
+            strict=True,
+        ):
+            target_work = position.get(columns.values[v])
+            if target_work is not None:
+                add(columns.keys[w], works[target_work], links[columns.paths[p]])
+    for a, _p, b, w in creator_edges:
+        add(a, b, w)
+    source.append(np.array(extra_a, dtype=np.int64))
+    target.append(np.array(extra_b, dtype=np.int64))
+    strength.append(np.array(extra_w, dtype=np.float64))
     n = len(node)
-    matrix = sp.coo_matrix((vals, (rows, cols)), shape=(n, n)).tocsr()
+    matrix = sp.coo_matrix(
+        (np.concatenate(strength), (np.concatenate(source), np.concatenate(target))),
+        shape=(n, n),
+    ).tocsr()
     symmetric = (matrix + matrix.T).tocsr()
     symmetric.sum_duplicates()
     names = [""] * n
@@ -424,7 +625,7 @@ def _graph(
 
 def _explanation_tables(
     index: Index,
-    statements: WorkStatements,
+    columns: StatementColumns,
     creator_edges: Sequence[tuple[str, str, str, float]],
 ) -> None:
     links = {link.path for link in index.profile.work_links}
@@ -432,12 +633,23 @@ def _explanation_tables(
     work_links: dict[str, list[Edge]] = defaultdict(list)
     work_creators: dict[str, list[tuple[str, str]]] = defaultdict(list)
     creator_works: dict[str, list[tuple[str, str]]] = defaultdict(list)
-    for work, path, obj in statements.links:
-        if path in links and obj in index.position:
+    keys, paths, values = columns.keys, columns.paths, columns.values
+    is_link = [p in links for p in paths]
+    is_creator = [p in creator_paths for p in paths]
+    keep = columns.path_ids(links | creator_paths)[columns.link_path]
+    position = index.position
+    for w, p, v in zip(
+        columns.link_work[keep].tolist(),
+        columns.link_path[keep].tolist(),
+        columns.link_value[keep].tolist(),
+        strict=True,
+    ):
+        work, path, obj = keys[w], paths[p], values[v]
+        if is_link[p] and obj in position:
             edge = Edge(work, path, obj)
             work_links[work].append(edge)
             work_links[obj].append(edge)
-        elif path in creator_paths:
+        elif is_creator[p]:
             work_creators[work].append((obj, path))
             creator_works[obj].append((work, path))
     creator_links: dict[str, list[Edge]] = defaultdict(list)

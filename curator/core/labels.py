@@ -14,6 +14,8 @@ from dataclasses import dataclass
 from urllib.parse import unquote
 
 _CAMEL = re.compile(r"(?<=[a-z0-9])(?=[A-Z])")
+_APOSTROPHES = re.compile(r"['’ʼ`]")
+_NOT_WORD = re.compile(r"[^\w]+")
 
 
 @dataclass(frozen=True)
@@ -75,11 +77,15 @@ def fold(text: str) -> str:
     >>> fold("  L'Été  des Âmes! ")
     'lete des ames'
     """
-    decomposed = unicodedata.normalize("NFKD", text)
-    stripped = "".join(ch for ch in decomposed if not unicodedata.combining(ch))
-    stripped = stripped.casefold()
-    stripped = re.sub(r"['’ʼ`]", "", stripped)
-    stripped = re.sub(r"[^\w]+", " ", stripped)
+    if text.isascii():
+        # Nothing to decompose and no accents in ASCII, where case folding is lowering.
+        stripped = text.lower()
+    else:
+        decomposed = unicodedata.normalize("NFKD", text)
+        stripped = "".join(ch for ch in decomposed if not unicodedata.combining(ch))
+        stripped = stripped.casefold()
+    stripped = _APOSTROPHES.sub("", stripped)
+    stripped = _NOT_WORD.sub(" ", stripped)
     return " ".join(stripped.split())
 
 

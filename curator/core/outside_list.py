@@ -70,9 +70,20 @@ def read_outside_list(path: Path) -> list[ListLine]:
         OutsideListError: unreadable, not UTF-8, or a CSV without a title or iri column.
     """
     try:
-        text = Path(path).read_text(encoding="utf-8-sig")
-    except (OSError, UnicodeDecodeError) as exc:
-        raise OutsideListError(f"{path}: cannot be read as UTF-8 text ({exc}).") from None
+        data = Path(path).read_bytes()
+    except OSError as exc:
+        raise OutsideListError(f"{path}: cannot be read ({exc.strerror or exc}).") from None
+    try:
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        start = exc.start + (3 if data.startswith(b"\xef\xbb\xbf") else 0)
+        line = data.count(b"\n", 0, start) + 1
+        line_start = data.rfind(b"\n", 0, start) + 1
+        column = len(data[line_start:start].decode("utf-8", errors="replace")) + 1
+        raise OutsideListError(
+            f"{path}, line {line}, column {column}: not UTF-8 text (byte 0x{data[start]:02x}); "
+            "save the list as UTF-8 and import it again."
+        ) from None
     return parse_outside_list(
         text, csv_format=Path(path).suffix.lower() in (".csv", ".tsv"), source=str(path)
     )
@@ -89,7 +100,12 @@ def parse_outside_list(text: str, *, csv_format: bool, source: str = "<list>") -
     first_line = text.splitlines()[0] if text.strip() else ""
     dialect = csv.excel_tab if "\t" in first_line else csv.excel
     reader = csv.reader(io.StringIO(text), dialect)
-    rows = list(reader)
+    try:
+        rows = list(reader)
+    except csv.Error as exc:  # a cell longer than the csv module allows, mainly
+        raise OutsideListError(
+            f"{source}, line {reader.line_num}: cannot be read as CSV ({exc})."
+        ) from None
     if not rows:
         return []
     header = [fold(h) for h in rows[0]]

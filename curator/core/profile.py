@@ -13,22 +13,22 @@ from __future__ import annotations
 import re
 import tomllib
 from collections import Counter, defaultdict
-from collections.abc import Mapping, Sequence
+from collections.abc import Collection, Mapping, Sequence
 from dataclasses import asdict, dataclass, field, replace
 from pathlib import Path
 from typing import Any, Literal, get_args
 
+import numpy as np
 import tomli_w
 
 from curator.core.catalogue import Catalogue
 from curator.core.errors import NoWorksError, ProfileError
 from curator.core.reading import (
     LABEL_PROPERTIES,
+    CatalogueReader,
+    StatementColumns,
     WorkStatements,
-    class_counts,
     join_path,
-    read_works,
-    subclass_pairs,
 )
 from curator.core.vocab import (
     BF,
@@ -339,15 +339,18 @@ def _path_and_weight(entry: Any, where: str, allowed: set[str]) -> tuple[str, fl
 # ----- detection --------------------------------------------------------------------------
 
 
-def detect_work_classes(catalogue: Catalogue) -> tuple[list[str], list[str]]:
+def detect_work_classes(
+    catalogue: Catalogue, *, reader: CatalogueReader | None = None
+) -> tuple[list[str], list[str]]:
     """The classes whose members are works, and notes on how they were found.
 
     Raises:
         NoWorksError: nothing in the catalogue looks like a work.
     """
-    counts = class_counts(catalogue)
+    reader = reader or CatalogueReader(catalogue)
+    counts = reader.class_counts()
     parents: dict[str, set[str]] = defaultdict(set)
-    for child, parent in subclass_pairs(catalogue):
+    for child, parent in reader.subclass_pairs():
         parents[child].add(parent)
 
     def is_work_class(cls: str) -> bool:
@@ -401,13 +404,46 @@ def _classes_that_point_at_shared_things(
     return sorted(scores)
 
 
-@dataclass
 class _PathStats:
-    uses: int = 0
-    literal_uses: int = 0
-    works: set[str] = field(default_factory=set)
-    values: Counter[str] = field(default_factory=Counter)
-    literal_values: list[str] = field(default_factory=list)
+    """What the works' statements of one path are like, read off the statement columns."""
+
+    def __init__(self, columns: StatementColumns, works: Collection[str]) -> None:
+        self.columns = columns
+        n_paths = len(columns.paths)
+        self.link_uses = np.bincount(columns.link_path, minlength=n_paths)
+        self.literal_uses = np.bincount(columns.literal_path, minlength=n_paths)
+        self.uses = self.link_uses + self.literal_uses
+        value_is_work = np.fromiter(
+            (v in works for v in columns.values), dtype=bool, count=len(columns.values)
+        )
+        self.to_works = np.bincount(
+            columns.link_path[value_is_work[columns.link_value]], minlength=n_paths
+        )
+        # Distinct (path, value) pairs and how often each occurs.
+        n_values = max(1, len(columns.values))
+        pairs, counts = np.unique(
+            columns.link_path.astype(np.int64) * n_values + columns.link_value,
+            return_counts=True,
+        )
+        self._pair_path = pairs // n_values
+        self._pair_value = pairs % n_values
+        self.shared = np.bincount(self._pair_path[counts >= 2], minlength=n_paths)
+
+    def paths(self) -> list[str]:
+        """Every path some work statement has."""
+        return [p for i, p in enumerate(self.columns.paths) if self.uses[i] > 0]
+
+    def values(self, path: int) -> list[str]:
+        """The distinct values of a path's links."""
+        values = self.columns.values
+        return [values[v] for v in self._pair_value[self._pair_path == path].tolist()]
+
+    def literal_samples(self, path: int, limit: int = 200) -> list[str]:
+        """The first lexical forms of a path's literals."""
+        columns = self.columns
+        rows = np.flatnonzero(columns.literal_path == path)[:limit]
+        lexicals = columns.lexicals
+        return [lexicals[x] for x in columns.literal_lexical[rows].tolist()]
 
 
 def detect_profile(
@@ -419,58 +455,48 @@ def detect_profile(
     statements: WorkStatements | None = None,
     types: Mapping[str, set[str]] | None = None,
     hierarchy_present: Sequence[str] | None = None,
+    reader: CatalogueReader | None = None,
 ) -> Profile:
     """Read the catalogue's shape and say which properties play which part.
 
     ``work_classes``, ``instance_links``, ``statements`` and ``types`` may be passed in when the
-    caller has found or read them already.
+    caller has found or read them already; so may a ``reader`` that has read some of it.
 
     Raises:
         NoWorksError: the catalogue holds no works.
     """
-    from curator.core.reading import read_edges, read_types
-
+    reader = reader or CatalogueReader(catalogue)
     notes: list[str] = []
     if work_classes is None:
-        work_classes, notes = detect_work_classes(catalogue)
+        work_classes, notes = detect_work_classes(catalogue, reader=reader)
     if instance_links is None:
-        instance_links = detect_instance_links(catalogue)
+        instance_links = detect_instance_links(catalogue, reader=reader)
     if statements is None:
-        statements = read_works(catalogue, work_classes, instance_links)
+        statements = reader.work_statements(work_classes, instance_links)
     if not statements.works:
         raise NoWorksError("The work classes found have no members.")
     if types is None:
-        types = read_types(catalogue)
+        types = reader.shared_types()
     works = set(statements.works)
+    columns = statements.columns()
+    stats = _PathStats(columns, works)
+    number = {p: i for i, p in enumerate(columns.paths)}
+    used = stats.paths()
 
-    stats: dict[str, _PathStats] = defaultdict(_PathStats)
-    for work, path, obj in statements.links:
-        s = stats[path]
-        s.uses += 1
-        s.works.add(work)
-        s.values[obj] += 1
-    for work, path, lexical, _lang in statements.literals:
-        s = stats[path]
-        s.uses += 1
-        s.literal_uses += 1
-        s.works.add(work)
-        if len(s.literal_values) < 200:
-            s.literal_values.append(lexical)
-
-    label_paths = [p for p in LABEL_PROPERTIES if p in stats]
+    label_paths = [p for p in LABEL_PROPERTIES if p in number and stats.uses[number[p]] > 0]
+    instance_preds = {link.lstrip("^") for link in instance_links}
     themes: list[ThemeProperty] = []
     work_links: list[LinkProperty] = []
     years: list[str] = []
     langs: list[str] = []
     audiences: list[str] = []
-    for path in sorted(stats):
-        s = stats[path]
-        if path in _SKIPPED_PATHS or path in label_paths or path.lstrip("^") in {
-            link.lstrip("^") for link in instance_links
-        }:
+    for path in sorted(used):
+        i = number[path]
+        if path in _SKIPPED_PATHS or path in label_paths or path.lstrip("^") in instance_preds:
             continue
-        if s.literal_uses * 2 >= s.uses:
-            kind = _literal_kind(path, s.literal_values)
+        uses, literal_uses = int(stats.uses[i]), int(stats.literal_uses[i])
+        if literal_uses * 2 >= uses:
+            kind = _literal_kind(path, stats.literal_samples(i))
             if kind == "year":
                 years.append(path)
             elif kind == "language":
@@ -480,8 +506,7 @@ def detect_profile(
             elif kind == "theme":
                 themes.append(ThemeProperty(path, "subject", ROLE_WEIGHTS["subject"]))
             continue
-        to_works = sum(n for v, n in s.values.items() if v in works)
-        if to_works * 2 >= s.uses - s.literal_uses:
+        if int(stats.to_works[i]) * 2 >= uses - literal_uses:
             work_links.append(LinkProperty(path, 1.0))
             continue
         if path in _LANGUAGE_PROPS:
@@ -489,17 +514,14 @@ def detect_profile(
             continue
         if path in _AUDIENCE_PROPS:
             audiences.append(path)
-        shared = sum(1 for n in s.values.values() if n >= 2)
-        if shared == 0:
+        if int(stats.shared[i]) == 0:
             continue
-        role = _role_of(path, s.values, types)
+        role = _role_of(path, stats.values(i), types)
         themes.append(ThemeProperty(path, role, ROLE_WEIGHTS[role]))
 
     if hierarchy_present is None:
-        hierarchy_present = [
-            h for h in HIERARCHY_PROPERTIES if read_edges(catalogue, [h.lstrip("^")])[:1]
-        ]
-    creator_links = _detect_creator_links(catalogue, statements, themes, works)
+        hierarchy_present = [h for h in HIERARCHY_PROPERTIES if reader.has_edge(h.lstrip("^"))]
+    creator_links = _detect_creator_links(catalogue, statements, themes, works, reader=reader)
     return Profile(
         work_classes=tuple(work_classes),
         label_properties=tuple(label_paths) or LABEL_PROPERTIES,
@@ -521,14 +543,12 @@ def _ordered(paths: list[str], preferred: set[str]) -> list[str]:
     return sorted(paths, key=lambda p: (p not in preferred, p))
 
 
-def detect_instance_links(catalogue: Catalogue) -> list[str]:
+def detect_instance_links(
+    catalogue: Catalogue, *, reader: CatalogueReader | None = None
+) -> list[str]:
     """The instance-to-work properties the catalogue uses (a BIBFRAME-style split)."""
-    return [link for link in INSTANCE_LINKS if _uses(catalogue, link.lstrip("^"))]
-
-
-def _uses(catalogue: Catalogue, predicate: str) -> bool:
-    rows = catalogue.select(f"SELECT ?s WHERE {{ ?s <{predicate}> ?o }} LIMIT 1")
-    return any(True for _ in rows)
+    reader = reader or CatalogueReader(catalogue)
+    return [link for link in INSTANCE_LINKS if reader.uses(link.lstrip("^"))]
 
 
 def _literal_kind(path: str, samples: Sequence[str]) -> str | None:
@@ -547,7 +567,7 @@ def _literal_kind(path: str, samples: Sequence[str]) -> str | None:
     return None
 
 
-def _role_of(path: str, values: Counter[str], types: Mapping[str, set[str]]) -> Role:
+def _role_of(path: str, values: Collection[str], types: Mapping[str, set[str]]) -> Role:
     if path in _CREATOR_PROPS:
         return "creator"
     if path in _PLACE_PROPS:
@@ -585,16 +605,19 @@ def _detect_creator_links(
     statements: WorkStatements,
     themes: Sequence[ThemeProperty],
     works: set[str],
+    *,
+    reader: CatalogueReader | None = None,
 ) -> list[LinkProperty]:
     """Properties between two creators (influence, collaboration), found in the data."""
-    from curator.core.reading import read_outgoing
-
+    reader = reader or CatalogueReader(catalogue)
     creator_paths = {t.path for t in themes if t.role == "creator"}
-    creators = {obj for _w, path, obj in statements.links if path in creator_paths}
+    columns = statements.columns()
+    rows = columns.path_ids(creator_paths)[columns.link_path]
+    creators = {columns.values[v] for v in np.unique(columns.link_value[rows]).tolist()}
     if not creators:
         return []
     counts: Counter[str] = Counter()
-    for a, p, b in read_outgoing(catalogue, sorted(creators)):
+    for a, p, b in reader.outgoing(sorted(creators)):
         if b in creators and a != b and b not in works:
             counts[p] += 1
     return [LinkProperty(p, 0.8) for p in sorted(counts)]

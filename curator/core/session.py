@@ -3,11 +3,14 @@
 The session is plain data with change notifications, so the window can watch it and the command
 line can read and write it. It is saved as versioned JSON of our own schema; a file from a newer
 curator, or one that is damaged, is refused with a message naming the field, and never changed.
+A file from an older curator is brought up to date on reading, one version at a time, through
+:data:`MIGRATIONS`; saving then writes the current version.
 """
 
 from __future__ import annotations
 
 import json
+import math
 from collections.abc import Callable
 from dataclasses import asdict, dataclass, field, fields, replace
 from datetime import UTC, datetime
@@ -18,7 +21,12 @@ from curator.core.errors import CuratorError
 from curator.core.files import write_text_atomically
 
 SESSION_FORMAT = "curator-session"
-SESSION_VERSION = 1
+#: The version this curator writes. History:
+#:
+#: 1. the first format (``settings`` without ``fill_gaps`` and ``targets``);
+#: 2. ``settings`` always holds ``fill_gaps`` and ``targets`` (nothing else changed, so a
+#:    version-1 file loses nothing in the move).
+SESSION_VERSION = 2
 
 EventKind = Literal[
     "seeds",
@@ -35,6 +43,44 @@ EventKind = Literal[
 
 class SessionError(CuratorError):
     """A session file cannot be read (damaged, not a session, or from a newer curator)."""
+
+
+def _migrate_1_to_2(data: dict[str, Any]) -> dict[str, Any]:
+    """Version 1 settings lacked the gap-filling switch and the balance targets: defaults."""
+    settings = data.get("settings", {})
+    if isinstance(settings, dict):
+        settings = {"fill_gaps": False, "targets": "", **settings}
+    return {**data, "settings": settings, "version": 2}
+
+
+#: ``MIGRATIONS[v]`` turns the JSON of a version-``v`` session into that of version ``v + 1``
+#: (a new mapping; the one read is never changed). Every version below
+#: :data:`SESSION_VERSION` has one, so any file a curator wrote so far can be read.
+MIGRATIONS: dict[int, Callable[[dict[str, Any]], dict[str, Any]]] = {
+    1: _migrate_1_to_2,
+}
+
+
+def migrate(data: dict[str, Any], *, source: str = "<session>") -> dict[str, Any]:
+    """The session JSON ``data`` brought up to :data:`SESSION_VERSION`.
+
+    Raises:
+        SessionError: the version is not a whole number from 1 on, or is newer than ours.
+    """
+    version = data.get("version")
+    if not isinstance(version, int) or isinstance(version, bool) or version < 1:
+        raise SessionError(f"{source}: field version must be a whole number of 1 or more.")
+    if version > SESSION_VERSION:
+        raise SessionError(
+            f"{source}: saved by a newer curator (session version {version}; this one "
+            f"reads up to {SESSION_VERSION}). The file was left as it is."
+        )
+    while version < SESSION_VERSION:
+        data = MIGRATIONS[version](data)
+        if data.get("version") != version + 1:  # a migration must move exactly one step
+            raise AssertionError(f"session migration from version {version} is broken")
+        version += 1
+    return data
 
 
 @dataclass(frozen=True)
@@ -257,30 +303,48 @@ class Session:
             raise SessionError(
                 f"{source}, line {exc.lineno}, column {exc.colno}: not valid JSON ({exc.msg})."
             ) from None
+        except RecursionError:
+            raise SessionError(
+                f"{source}: not a curator session file (nested too deeply to read)."
+            ) from None
         return cls.from_json(data, source=source)
 
     @classmethod
     def load(cls, path: Path) -> Session:
+        """Read a session file; the file itself is only read, never changed.
+
+        Raises:
+            SessionError: unreadable, not UTF-8 (naming line and column), or see :meth:`loads`.
+        """
         try:
-            text = Path(path).read_text(encoding="utf-8")
-        except (OSError, UnicodeDecodeError) as exc:
-            raise SessionError(f"{path}: cannot be read ({exc}).") from None
+            data = Path(path).read_bytes()
+        except OSError as exc:
+            raise SessionError(f"{path}: cannot be read ({exc.strerror or exc}).") from None
+        try:
+            text = data.decode("utf-8-sig")
+        except UnicodeDecodeError as exc:
+            start = exc.start + (3 if data.startswith(b"\xef\xbb\xbf") else 0)
+            line = data.count(b"\n", 0, start) + 1
+            line_start = data.rfind(b"\n", 0, start) + 1
+            column = len(data[line_start:start].decode("utf-8", errors="replace")) + 1
+            raise SessionError(
+                f"{path}, line {line}, column {column}: not UTF-8 text "
+                f"(byte 0x{data[start]:02x}); not a curator session file."
+            ) from None
         return cls.loads(text, source=str(path))
 
     @classmethod
     def from_json(cls, data: Any, *, source: str = "<session>") -> Session:
+        """A session from its JSON (any version up to ours), naming the field at fault.
+
+        Raises:
+            SessionError: not a curator session, from a newer curator, or a field is malformed.
+        """
         if not isinstance(data, dict) or data.get("format") != SESSION_FORMAT:
             raise SessionError(
                 f'{source}: not a curator session file (no "format": "{SESSION_FORMAT}").'
             )
-        version = data.get("version")
-        if not isinstance(version, int) or version < 1:
-            raise SessionError(f"{source}: field version must be a whole number.")
-        if version > SESSION_VERSION:
-            raise SessionError(
-                f"{source}: saved by a newer curator (session version {version}; this one "
-                f"reads up to {SESSION_VERSION}). The file was left as it is."
-            )
+        data = migrate(data, source=source)
         try:
             settings_data = data.get("settings", {})
             _require(isinstance(settings_data, dict), "settings must be an object")
@@ -288,14 +352,14 @@ class Session:
             unknown = sorted(set(settings_data) - known)
             _require(not unknown, f"settings has unknown field(s) {', '.join(unknown)}")
             settings = ListSettings(
-                lam=float(settings_data.get("lam", 0.7)),
-                mode=str(settings_data.get("mode", "blend")),
+                lam=_fraction(settings_data.get("lam", 0.7), "settings.lam"),
+                mode=_text(settings_data.get("mode", "blend"), "settings.mode"),
                 kinds=tuple(_strings(settings_data.get("kinds", []), "settings.kinds")),
                 year_from=_optional_int(settings_data.get("year_from"), "settings.year_from"),
                 year_to=_optional_int(settings_data.get("year_to"), "settings.year_to"),
                 languages=tuple(_strings(settings_data.get("languages", []), "settings.languages")),
-                fill_gaps=bool(settings_data.get("fill_gaps", False)),
-                targets=str(settings_data.get("targets", "")),
+                fill_gaps=_flag(settings_data.get("fill_gaps", False), "settings.fill_gaps"),
+                targets=_text(settings_data.get("targets", ""), "settings.targets"),
             )
             entries = []
             raw_entries = data.get("entries", [])
@@ -308,19 +372,19 @@ class Session:
                 entries.append(
                     ListEntry(
                         iri=raw["iri"],
-                        label=str(raw.get("label", raw["iri"])),
-                        rationale=str(raw.get("rationale", "")),
-                        note=str(raw.get("note", "")),
+                        label=_text(raw.get("label", raw["iri"]), f"entries[{i}].label"),
+                        rationale=_text(raw.get("rationale", ""), f"entries[{i}].rationale"),
+                        note=_text(raw.get("note", ""), f"entries[{i}].note"),
                     )
                 )
             return cls(
-                title=str(data.get("title", "Untitled list")),
+                title=_text(data.get("title", "Untitled list"), "title"),
                 seeds=_strings(data.get("seeds", []), "seeds"),
                 entries=entries,
                 dismissed=_strings(data.get("dismissed", []), "dismissed"),
                 settings=settings,
                 catalogue=_strings(data.get("catalogue", []), "catalogue"),
-                created=str(data.get("created", _now())),
+                created=_text(data.get("created", _now()), "created"),
             )
         except _FieldError as exc:
             raise SessionError(f"{source}: field {exc}.") from None
@@ -349,6 +413,27 @@ def _strings(value: Any, name: str) -> list[str]:
         f"{name} must be a list of strings",
     )
     return list(value)
+
+
+def _text(value: Any, name: str) -> str:
+    _require(isinstance(value, str), f"{name} must be text")
+    return str(value)
+
+
+def _flag(value: Any, name: str) -> bool:
+    _require(isinstance(value, bool), f"{name} must be true or false")
+    return bool(value)
+
+
+def _fraction(value: Any, name: str) -> float:
+    _require(
+        isinstance(value, int | float)
+        and not isinstance(value, bool)
+        and math.isfinite(value)
+        and 0.0 <= value <= 1.0,
+        f"{name} must be a number from 0 to 1",
+    )
+    return float(value)
 
 
 def _optional_int(value: Any, name: str) -> int | None:

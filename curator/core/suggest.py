@@ -7,6 +7,7 @@ against the seeds, the list so far and the picks so far -> an explanation for ea
 
 from __future__ import annotations
 
+import itertools
 from collections.abc import Sequence
 from dataclasses import dataclass, field, replace
 from typing import Literal, get_args
@@ -21,10 +22,13 @@ from curator.core.explain import ConnectingPath, Explainer, SharedTheme
 from curator.core.index import Index, WorkRecord
 from curator.core.labels import fold, iri_tail
 from curator.core.mmr import maximal_marginal_relevance
+from curator.core.reading import sparql_iri
 from curator.core.similarity import (
     PAGERANK_ALPHA,
+    PushOperator,
     personalized_pagerank,
     personalized_pagerank_push,
+    push_operator,
 )
 from curator.core.targets import Targets
 
@@ -85,6 +89,14 @@ class SuggestSettings:
             and self.year_from > self.year_to
         ):
             raise SettingsError(f"the year range {self.year_from}-{self.year_to} is empty.")
+        if self.shared_property is not None:
+            try:
+                sparql_iri(self.shared_property)
+            except ValueError:
+                raise SettingsError(
+                    f"property {self.shared_property!r} is not an IRI (it holds a space, a "
+                    "quote, a bracket or a control character); give the property's full IRI."
+                ) from None
         return self
 
 
@@ -122,6 +134,12 @@ class Suggester:
         self.index = index
         self._incidence: dict[str, sp.csr_matrix] = {}
         self._degree = np.asarray(index.graph.sum(axis=1)).ravel()
+        # Built on first use: what the graph and content scores and the orderings read.
+        self._push: PushOperator | None = None
+        self._by_column: tuple[sp.csc_matrix, bool] | None = None
+        self._by_column_known = False
+        self._rank: np.ndarray | None = None
+        self._incidence_columns: dict[str, tuple[sp.csr_matrix, sp.csc_matrix]] = {}
         self._reader: FacetReader | None = None
         #: Labels of the gaps the last gap-filling suggestion aimed at.
         self.last_gaps: tuple[str, ...] = ()
@@ -137,7 +155,40 @@ class Suggester:
         """Mean cosine similarity of every work to the seeds (TF-IDF vectors)."""
         vectors = self.index.vectors
         centroid = np.asarray(vectors[list(seeds)].mean(axis=0)).ravel()
-        return np.clip(vectors @ centroid, 0.0, 1.0)
+        by_column = self._columns()
+        if by_column is None:
+            return np.clip(vectors @ centroid, 0.0, 1.0)
+        # Only the works that share a feature with the seeds can score: add up the columns of
+        # the seeds' features rather than multiply every row. Each row's terms are added in the
+        # order the row keeps them, as the full product does, so the sums are the same to the
+        # last bit.
+        csc, descending = by_column
+        columns = np.flatnonzero(centroid)
+        indptr, indices, data = csc.indptr, csc.indices, csc.data
+        if 6 * int((indptr[columns + 1] - indptr[columns]).sum()) > vectors.nnz:
+            return np.clip(vectors @ centroid, 0.0, 1.0)  # the full product is quicker
+        scores = np.zeros(vectors.shape[0])
+        for j in (columns[::-1] if descending else columns).tolist():
+            start, end = indptr[j], indptr[j + 1]
+            scores[indices[start:end]] += data[start:end] * centroid[j]
+        return np.clip(scores, 0.0, 1.0, out=scores)
+
+    def _columns(self) -> tuple[sp.csc_matrix, bool] | None:
+        """The vectors by column, and whether each row keeps its features in falling column
+        order (else rising); None when the rows keep no one order."""
+        if not self._by_column_known:
+            self._by_column_known = True
+            vectors = self.index.vectors
+            steps = np.diff(vectors.indices)
+            inside = np.ones(len(steps), dtype=bool)
+            ends = vectors.indptr[1:-1] - 1
+            inside[ends[(ends >= 0) & (ends < len(steps))]] = False
+            steps = steps[inside]
+            if (steps < 0).all():
+                self._by_column = (vectors.tocsc(), True)
+            elif (steps > 0).all():
+                self._by_column = (vectors.tocsc(), False)
+        return self._by_column
 
     def graph_scores(self, seeds: Sequence[int], *, exact: bool = False) -> np.ndarray:
         """Personalized PageRank mass of every work, restarting uniformly at the seeds."""
@@ -149,10 +200,28 @@ class Suggester:
         if exact:
             ranks = personalized_pagerank(graph, personalization, alpha=PAGERANK_ALPHA)
         else:
+            if self._push is None:
+                self._push = push_operator(graph, self._degree, PAGERANK_ALPHA)
             ranks = personalized_pagerank_push(
-                graph, personalization, alpha=PAGERANK_ALPHA, degree=self._degree
+                graph, personalization, alpha=PAGERANK_ALPHA, operator=self._push
             )
         return ranks[: self.index.size]
+
+    def _work_rank(self) -> np.ndarray:
+        """Each work's place among the works sorted by IRI (ties in relevance go by IRI)."""
+        if self._rank is None:
+            works = self.index.works
+            if all(a < b for a, b in itertools.pairwise(works)):
+                self._rank = np.arange(len(works))
+            else:
+                order = sorted(range(len(works)), key=works.__getitem__)
+                self._rank = np.empty(len(works), dtype=np.int64)
+                self._rank[order] = np.arange(len(works))
+        return self._rank
+
+    def _by_relevance(self, candidates: np.ndarray, values: np.ndarray) -> np.ndarray:
+        """``candidates`` by falling value, ties by IRI."""
+        return candidates[np.lexsort((self._work_rank()[candidates], -values[candidates]))]
 
     def set_incidence(self, prop: str, incidence: sp.csr_matrix) -> None:
         """Give the shared-count mode the work x value matrix of a property outside the themes."""
@@ -240,11 +309,12 @@ class Suggester:
 
         if settings.mode == "shared-count":
             prop = settings.shared_property or self.default_shared_property()
-            counts = shared_counts_for(self.incidence(prop), seeds)
+            counts = self._shared_counts(prop, seeds)
             candidates = np.flatnonzero(allowed & (counts > 0))
-            order = sorted(candidates, key=lambda i: (-counts[i], index.works[i]))
-            chosen = order[: settings.limit]
-            content = self.content_scores(seeds)
+            chosen = [int(i) for i in self._top(candidates, counts, settings.limit)]
+            content = np.zeros(n)
+            if chosen:
+                content[chosen] = self._content_of(seeds, chosen)
             scores = {i: float(counts[i]) for i in chosen}
             relevance = {i: float(counts[i]) for i in chosen}
             graph = np.zeros(n)
@@ -264,14 +334,12 @@ class Suggester:
                 rel = rel - settings.dismissed_penalty * np.asarray(
                     penalty.max(axis=1).todense()
                 ).ravel()
-            floor = settings.relevance_floor * float(rel[allowed].max()) if allowed.any() else 0.0
+            floor = settings.relevance_floor * _peak(rel, allowed)
             candidates = np.flatnonzero(allowed & (rel > max(floor, 0.0)))
             if candidates.size > settings.pool_size:
                 top = np.argpartition(-rel[candidates], settings.pool_size)[: settings.pool_size]
                 candidates = candidates[top]
-            candidates = np.array(
-                sorted(candidates, key=lambda i: (-rel[i], index.works[i])), dtype=np.int64
-            )
+            candidates = self._by_relevance(candidates.astype(np.int64), rel)
             chosen, scores, relevance = self._diversify(
                 candidates, rel, settings, seeds, list_items
             )
@@ -305,6 +373,40 @@ class Suggester:
             settings=settings,
             notes=tuple(notes),
         )
+
+    def _shared_counts(self, prop: str, seeds: Sequence[int]) -> np.ndarray:
+        """As :func:`shared_counts_for`, column by column (counts are whole numbers, so adding
+        them in another order gives the same)."""
+        incidence = self.incidence(prop)
+        if not sp.isspmatrix_csr(incidence) or len(incidence.data) == 0:
+            return shared_counts_for(incidence, seeds)
+        by_column = self._incidence_columns.get(prop)
+        if by_column is None or by_column[0] is not incidence:
+            by_column = self._incidence_columns[prop] = (incidence, incidence.tocsc())
+        csc = by_column[1]
+        weights = np.asarray(incidence[list(seeds)].sum(axis=0)).ravel()
+        counts = np.zeros(incidence.shape[0])
+        for j in np.flatnonzero(weights).tolist():
+            start, end = csc.indptr[j], csc.indptr[j + 1]
+            counts[csc.indices[start:end]] += csc.data[start:end] * weights[j]
+        return counts
+
+    def _top(self, candidates: np.ndarray, values: np.ndarray, k: int) -> np.ndarray:
+        """The first ``k`` of ``candidates`` by falling value, ties by IRI, without sorting
+        them all."""
+        if candidates.size > 4 * k:
+            kth = np.partition(-values[candidates], k - 1)[k - 1]
+            above = candidates[-values[candidates] < kth]
+            level = candidates[-values[candidates] == kth]
+            level = level[np.argsort(self._work_rank()[level], kind="stable")[: k - above.size]]
+            candidates = np.concatenate([above, level])
+        return self._by_relevance(candidates.astype(np.int64), values)[:k]
+
+    def _content_of(self, seeds: Sequence[int], rows: Sequence[int]) -> np.ndarray:
+        """:meth:`content_scores` of some works only (each row's sum is the same)."""
+        vectors = self.index.vectors
+        centroid = np.asarray(vectors[list(seeds)].mean(axis=0)).ravel()
+        return np.clip(vectors[list(rows)] @ centroid, 0.0, 1.0)
 
     def _diversify(
         self,
@@ -374,11 +476,18 @@ def _combine(
         return graph
 
     def scaled(values: np.ndarray) -> np.ndarray:
-        peak = values[allowed].max() if allowed.any() else 0.0
+        peak = _peak(values, allowed)
         return values / peak if peak > 0 else values
 
     share = settings.content_share
     return share * scaled(content) + (1.0 - share) * scaled(graph)
+
+
+def _peak(values: np.ndarray, allowed: np.ndarray) -> float:
+    """The largest of the allowed values (0 when none is allowed), without copying them out."""
+    if not allowed.any():
+        return 0.0
+    return float(np.max(values, where=allowed, initial=-np.inf))
 
 
 def resolve_kinds(index: Index, names: Sequence[str]) -> set[str]:

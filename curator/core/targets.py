@@ -89,6 +89,8 @@ class Targets:
             data = tomllib.loads(text)
         except tomllib.TOMLDecodeError as exc:
             raise TargetsError(f"{source}: not valid TOML ({exc}).") from None
+        except RecursionError:
+            raise TargetsError(f"{source}: not valid targets (nested too deeply).") from None
         return _targets_from(data, source)
 
     @classmethod

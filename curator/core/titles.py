@@ -20,6 +20,16 @@ FUZZY_ACCEPT = 0.84
 #: How far ahead of the runner-up a near miss must be to be taken without asking.
 FUZZY_MARGIN = 0.06
 _YEAR_HINT = re.compile(r"^(.*?)\s*[\(\[]\s*(\d{4})\s*[\)\]]\s*$")
+#: What a theme value of each role is called when a curator types one in place of a work.
+_ROLE_WORDS = {
+    "subject": "theme",
+    "genre": "genre",
+    "creator": "creator",
+    "place": "place",
+    "series": "series",
+    "audience": "audience",
+    "other": "value",
+}
 
 
 @dataclass(frozen=True)
@@ -45,6 +55,9 @@ class TitleFinder:
             bucket = self._exact.setdefault(folded, [])
             if i not in bucket:
                 bucket.append(i)
+        #: folded label -> theme values (subjects, creators, places...) with that label; built
+        #: when first needed
+        self._values: dict[str, list[tuple[str, str]]] | None = None
 
     def describe(self, position: int) -> str:
         """'creator, year, kind' for telling works with the same title apart."""
@@ -129,6 +142,7 @@ class TitleFinder:
                 "in brackets, to choose one.",
                 [self.candidate(i) for i in exact[:8]],
             )
+        self._refuse_theme(text.strip(), query)
         scored = self._fuzzy(query, year)
         if scored and scored[0][0] >= FUZZY_ACCEPT:
             runner_up = scored[1][0] if len(scored) > 1 else 0.0
@@ -146,6 +160,45 @@ class TitleFinder:
         close = list(dict.fromkeys([*partial, *(i for s, i in scored[:5] if s >= 0.45)]))
         raise SeedError(
             f"No work is titled {text.strip()!r}.", [self.candidate(i) for i in close[:6]]
+        )
+
+    def _theme_values(self) -> dict[str, list[tuple[str, str]]]:
+        """Folded label -> (value key, role word) of every theme value that is not a work."""
+        if self._values is None:
+            index = self.index
+            values: dict[str, list[tuple[str, str]]] = {}
+            seen: set[str] = set()
+            for feature in index.features:
+                key = feature.value
+                if key in seen or key in index.position or key.startswith('"'):
+                    continue
+                seen.add(key)
+                theme = index.profile.theme(feature.path)
+                role = _ROLE_WORDS.get(theme.role if theme else "other", "value")
+                label = index.labels.get(key)
+                if label:
+                    values.setdefault(fold(label), []).append((key, role))
+            self._values = values
+        return self._values
+
+    def _refuse_theme(self, text: str, query: str) -> None:
+        """A typed text that names a theme, creator or place rather than a work is an error
+        saying so, with some of its works to choose from."""
+        found = self._theme_values().get(query)
+        if not found:
+            return
+        key, role = found[0]
+        index = self.index
+        columns = [j for j, f in enumerate(index.features) if f.value == key]
+        strength = index.raw[:, columns].max(axis=1).toarray().ravel()
+        works = sorted(
+            (int(i) for i in strength.nonzero()[0]),
+            key=lambda i: (-strength[i], index.records[i].label),
+        )
+        raise SeedError(
+            f"{text!r} is a {role} in this catalogue, not a work; seeds must be works. "
+            f"To start from this {role}, pick one of its works.",
+            [self.candidate(i) for i in works[:6]],
         )
 
     def _fuzzy(self, query: str, year: int | None) -> list[tuple[float, int]]:

@@ -6,9 +6,11 @@ from __future__ import annotations
 import contextlib
 import os
 import sys
+import time
 from dataclasses import dataclass
 from pathlib import Path
 
+from curator.core.files import TEMP_SUFFIX
 from curator.core.session import ListEntry, ListSettings, Session, SessionError
 from curator.core.suggest import Suggestion, SuggestionResult, SuggestSettings
 from curator.core.targets import Targets
@@ -112,14 +114,45 @@ def write_recovery(session: Session) -> Path:
     return path
 
 
+#: A temporary file of an autosave older than this was left by a run that was killed mid-write.
+STALE_TEMP_SECONDS = 60.0
+
+
+def unreadable_recovery_path() -> Path:
+    """Where a recovery file that cannot be read is set aside (never overwritten by autosave)."""
+    return state_folder() / "recovery.curator.json.unreadable"
+
+
+def _remove_stale_temp_files() -> None:
+    """Temporary files of autosaves that a killed run never finished (they hold nothing the
+    recovery file does not: the rename is what makes a write count)."""
+    folder = state_folder()
+    prefix = f".{recovery_path().name}."
+    now = time.time()
+    with contextlib.suppress(OSError):
+        for entry in folder.iterdir():
+            if entry.name.startswith(prefix) and entry.name.endswith(TEMP_SUFFIX):
+                with contextlib.suppress(OSError):
+                    if now - entry.stat().st_mtime > STALE_TEMP_SECONDS:
+                        entry.unlink()
+
+
 def read_recovery() -> Session | None:
-    """The session left by a run that did not end cleanly, if there is a readable one."""
+    """The session left by a run that did not end cleanly, if there is a readable one.
+
+    A recovery file that cannot be read (damaged, or written by a newer curator) is moved to
+    :func:`unreadable_recovery_path`, byte for byte, so that the next autosave does not
+    overwrite the only copy of that work.
+    """
+    _remove_stale_temp_files()
     path = recovery_path()
     if not path.exists():
         return None
     try:
         return Session.load(path)
     except SessionError:
+        with contextlib.suppress(OSError):
+            os.replace(path, unreadable_recovery_path())
         return None
 
 

@@ -21,7 +21,7 @@ from curator.core.profile import (
     detect_work_classes,
 )
 from curator.core.progress import Progress, silent
-from curator.core.reading import read_types, read_works
+from curator.core.reading import CatalogueReader, paused_gc
 from curator.core.suggest import Suggester
 from curator.core.titles import TitleFinder
 
@@ -117,18 +117,31 @@ def open_catalogue(
     """
     progress = progress or silent()
     chosen = list(paths) if paths else [demo_collection_path()]
+    with paused_gc():
+        return _open(chosen, profile_path, languages, format_name, progress)
+
+
+def _open(
+    chosen: list[Path | str],
+    profile_path: Path | None,
+    languages: Sequence[str] | None,
+    format_name: str | None,
+    progress: Progress,
+) -> Workspace:
     catalogue = Catalogue.load(chosen, format_name=format_name, progress=progress.part(0.0, 0.4))
     langs = tuple(languages) if languages else preferred_languages()
     progress.report("Profiling the catalogue", 0.4)
-    types = read_types(catalogue)
+    # One reader for profile and index: each kind of statement is read from the store once.
+    reader = CatalogueReader(catalogue)
+    types = reader.shared_types()
     if profile_path is not None:
         profile = Profile.load(profile_path)
         profile = replace(profile, languages=langs) if languages else profile
-        statements = read_works(catalogue, profile.work_classes, profile.instance_links)
+        statements = reader.work_statements(profile.work_classes, profile.instance_links)
     else:
-        work_classes, notes = detect_work_classes(catalogue)
-        links = detect_instance_links(catalogue)
-        statements = read_works(catalogue, work_classes, links, progress.part(0.4, 0.6))
+        work_classes, notes = detect_work_classes(catalogue, reader=reader)
+        links = detect_instance_links(catalogue, reader=reader)
+        statements = reader.work_statements(work_classes, links, progress.part(0.4, 0.6))
         profile = detect_profile(
             catalogue,
             languages=langs,
@@ -136,10 +149,15 @@ def open_catalogue(
             instance_links=links,
             statements=statements,
             types=types,
+            reader=reader,
         )
         profile = replace(profile, notes=tuple(notes))
     index = build_index(
-        catalogue, profile, statements=statements, types=types, progress=progress.part(0.6, 1.0)
+        catalogue,
+        profile,
+        statements=statements,
+        types=types,
+        progress=progress.part(0.6, 1.0),
+        reader=reader,
     )
     return Workspace(catalogue, profile, index, Suggester(index), TitleFinder(index))
-

@@ -216,6 +216,11 @@ class Catalogue:
                 if error.lineno is None and fmt == ox.RdfFormat.RDF_XML:
                     error = _xml_position(path, data, error)
                 raise error from None
+            except MemoryError as exc:
+                raise CatalogueError(
+                    f"{path}: too large for the parser to read in one piece ({exc}); a single "
+                    "value over 16 MiB is the usual cause. Nothing was loaded."
+                ) from None
             except (ValueError, OSError) as exc:
                 raise CatalogueError(f"{path}: {exc}") from None
             count = len(store)

@@ -86,7 +86,7 @@ def measure(works: int, seeds: int, sparql_seeds: int, out: Path | None) -> dict
     figures["speedup_vs_sparql_groupby"] = (
         figures["sparql_groupby_median_ms"] / figures["blend_median_ms"]
     )
-    _ = stats
+    figures["top_theme_share"] = stats.top_theme_works / max(1, stats.works)
     path.unlink()
     folder.rmdir()
     return figures

@@ -74,6 +74,8 @@ class Explainer:
         self._direct = [set(_row_dict(index.direct, i)) for i in self.context]
         self._shared = set().union(*self._weights) if self._weights else set()
         self._words = _feature_words(index)
+        self._context_labels = [index.records[i].label for i in self.context]
+        self._roles: dict[str, str] = {}
 
     # ----- shared themes ---------------------------------------------------------------
 
@@ -81,16 +83,28 @@ class Explainer:
         if not self.context:
             return []
         index = self.index
-        row = _row_dict(index.vectors, position)
+        vectors = index.vectors
+        start, end = vectors.indptr[position], vectors.indptr[position + 1]
+        row = zip(
+            vectors.indices[start:end].tolist(), vectors.data[start:end].tolist(), strict=True
+        )
         direct_row = set(_row_dict(index.direct, position))
-        found: list[SharedTheme] = []
-        shared, words = self._shared, self._words
-        for column, value in row.items():
+        shared, words, weights, direct = self._shared, self._words, self._weights, self._direct
+        single = len(weights) == 1
+        # (-weight, label, place in the row, ...): the order a stable sort by (-weight, label)
+        # of the themes in row order gives; a SharedTheme is made only for those shown.
+        found: list[tuple] = []
+        for place, (column, value) in enumerate(row):
             if column not in shared:
                 continue
-            holders = [h for h, weights in enumerate(self._weights) if column in weights]
-            peak = max(self._weights[h][column] for h in holders)
-            direct_holders = [h for h in holders if column in self._direct[h]]
+            if single:
+                holders: tuple[int, ...] | list[int] = (0,)
+                peak = weights[0][column]
+                has_direct = column in direct[0]
+            else:
+                holders = [h for h, w in enumerate(weights) if column in w]
+                peak = max(weights[h][column] for h in holders)
+                has_direct = any(column in direct[h] for h in holders)
             text = words.get(column)
             if text is None:
                 feature = index.features[column]
@@ -100,19 +114,30 @@ class Explainer:
                     feature.path,
                     index.path_label(feature.path),
                 )
-            found.append(
-                SharedTheme(
-                    iri=text[0],
-                    label=text[1],
-                    property=text[2],
-                    property_label=text[3],
-                    weight=float(value * peak),
-                    shared_with=tuple(index.records[self.context[h]].label for h in holders),
-                    broader=column not in direct_row or not direct_holders,
-                )
+            weight = float(value * peak)
+            broader = column not in direct_row or not has_direct
+            found.append((-weight, text[1], place, weight, broader, holders, text))
+        found.sort()
+        # As _drop_redundant_broader: the direct themes, then broader ones to fill the list.
+        narrower = [t for t in found if not t[4]]
+        wider = [t for t in found if t[4]]
+        kept = sorted(
+            narrower + wider[: max(0, SHARED_THEMES_SHOWN - len(narrower))],
+            key=lambda t: (t[0], t[1]),
+        )[:SHARED_THEMES_SHOWN]
+        labels = self._context_labels
+        return [
+            SharedTheme(
+                iri=text[0],
+                label=text[1],
+                property=text[2],
+                property_label=text[3],
+                weight=weight,
+                shared_with=tuple(labels[h] for h in holders),
+                broader=broader,
             )
-        found.sort(key=lambda t: (-t.weight, t.label))
-        return _drop_redundant_broader(found)[:SHARED_THEMES_SHOWN]
+            for _w, _label, _place, weight, broader, holders, text in kept
+        ]
 
     # ----- connecting paths ------------------------------------------------------------
 
@@ -190,8 +215,11 @@ class Explainer:
         return None
 
     def _role_of(self, path: str) -> str:
-        theme = self.index.profile.theme(path)
-        return theme.role if theme is not None else "other"
+        role = self._roles.get(path)
+        if role is None:
+            theme = self.index.profile.theme(path)
+            role = self._roles[path] = theme.role if theme is not None else "other"
+        return role
 
     def _role(self, path: str) -> str:
         return PROPERTY_WORDS.get(path) or self.index.path_label(path)

@@ -9,14 +9,14 @@ merely repeats an item already on the list is pushed down.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 import numpy as np
 
 
 def maximal_marginal_relevance(
     relevance: np.ndarray,
-    similarity: np.ndarray,
+    similarity: np.ndarray | Callable[[int], np.ndarray],
     k: int,
     lam: float,
     *,
@@ -26,7 +26,8 @@ def maximal_marginal_relevance(
 
     Args:
         relevance: shape ``(m,)``, the relevance of each candidate.
-        similarity: shape ``(m, m)``, similarity between candidates (symmetric).
+        similarity: shape ``(m, m)``, similarity between candidates (symmetric); or a function
+            giving its column ``j``, since only the columns of the picks are ever read.
         k: how many to pick.
         lam: the trade-off in [0, 1]; 1 is pure relevance.
         already: shape ``(m, a)``, similarity of each candidate to items chosen before this
@@ -44,15 +45,20 @@ def maximal_marginal_relevance(
     chosen: list[int] = []
     available = np.ones(m, dtype=bool)
     has_redundancy = already is not None and already.size > 0
+    columns = similarity if callable(similarity) else _columns_of(similarity)
     for _ in range(k):
         score = lam * relevance - (1.0 - lam) * redundancy if has_redundancy else lam * relevance
         score = np.where(available, score, -np.inf)
         pick = int(np.argmax(score))
         chosen.append(pick)
         available[pick] = False
-        redundancy = np.maximum(redundancy, similarity[:, pick])
+        redundancy = np.maximum(redundancy, columns(pick))
         has_redundancy = True
     return chosen
+
+
+def _columns_of(similarity: np.ndarray) -> Callable[[int], np.ndarray]:
+    return lambda j: similarity[:, j]
 
 
 def order_by_relevance(relevance: Sequence[float]) -> list[int]:

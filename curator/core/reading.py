@@ -21,6 +21,7 @@ from __future__ import annotations
 
 import contextlib
 import gc
+import re
 from collections import defaultdict
 from collections.abc import Iterable, Iterator, Sequence
 from dataclasses import dataclass
@@ -78,9 +79,13 @@ def sparql_iri(iri: str) -> str:
     Raises:
         ValueError: the IRI holds characters SPARQL forbids in an IRI reference.
     """
-    if any(ch in iri for ch in '<>"{}|^`\\ \n\r\t') or any(ord(ch) < 0x20 for ch in iri):
+    if _NOT_IN_IRI.search(iri) is not None:
         raise ValueError(f"not a usable IRI: {iri!r}")
     return iri
+
+
+#: What SPARQL forbids in an IRI reference: ``<>"{}|^`\``, space and the control characters.
+_NOT_IN_IRI = re.compile(r'[<>"{}|^`\\\x00-\x20]')
 
 
 def node_key(term: ox.NamedNode | ox.BlankNode) -> str:

@@ -154,7 +154,7 @@ class Suggester:
     def content_scores(self, seeds: Sequence[int]) -> np.ndarray:
         """Mean cosine similarity of every work to the seeds (TF-IDF vectors)."""
         vectors = self.index.vectors
-        centroid = np.asarray(vectors[list(seeds)].mean(axis=0)).ravel()
+        centroid = self._centroid(seeds)
         by_column = self._columns()
         if by_column is None:
             return np.clip(vectors @ centroid, 0.0, 1.0)
@@ -172,6 +172,17 @@ class Suggester:
             start, end = indptr[j], indptr[j + 1]
             scores[indices[start:end]] += data[start:end] * centroid[j]
         return np.clip(scores, 0.0, 1.0, out=scores)
+
+    def _centroid(self, seeds: Sequence[int]) -> np.ndarray:
+        """The mean of the seeds' vectors, as a dense row."""
+        vectors = self.index.vectors
+        if len(seeds) != 1:
+            return np.asarray(vectors[list(seeds)].mean(axis=0)).ravel()
+        # One seed: its own row (the mean of one row is that row, to the last bit).
+        start, end = vectors.indptr[seeds[0]], vectors.indptr[seeds[0] + 1]
+        centroid = np.zeros(vectors.shape[1])
+        centroid[vectors.indices[start:end]] = vectors.data[start:end]
+        return centroid
 
     def _columns(self) -> tuple[sp.csc_matrix, bool] | None:
         """The vectors by column, and whether each row keeps its features in falling column
@@ -384,7 +395,12 @@ class Suggester:
         if by_column is None or by_column[0] is not incidence:
             by_column = self._incidence_columns[prop] = (incidence, incidence.tocsc())
         csc = by_column[1]
-        weights = np.asarray(incidence[list(seeds)].sum(axis=0)).ravel()
+        if len(seeds) == 1:
+            start, end = incidence.indptr[seeds[0]], incidence.indptr[seeds[0] + 1]
+            weights = np.zeros(incidence.shape[1])
+            np.add.at(weights, incidence.indices[start:end], incidence.data[start:end])
+        else:
+            weights = np.asarray(incidence[list(seeds)].sum(axis=0)).ravel()
         counts = np.zeros(incidence.shape[0])
         for j in np.flatnonzero(weights).tolist():
             start, end = csc.indptr[j], csc.indptr[j + 1]
@@ -403,10 +419,17 @@ class Suggester:
         return self._by_relevance(candidates.astype(np.int64), values)[:k]
 
     def _content_of(self, seeds: Sequence[int], rows: Sequence[int]) -> np.ndarray:
-        """:meth:`content_scores` of some works only (each row's sum is the same)."""
+        """:meth:`content_scores` of some works only: each row's products added one after
+        the other in the row's order, as the full product adds them."""
         vectors = self.index.vectors
-        centroid = np.asarray(vectors[list(seeds)].mean(axis=0)).ravel()
-        return np.clip(vectors[list(rows)] @ centroid, 0.0, 1.0)
+        centroid = self._centroid(seeds)
+        indptr, indices, data = vectors.indptr, vectors.indices, vectors.data
+        scores = np.zeros(len(rows))
+        for k, row in enumerate(rows):
+            start, end = indptr[row], indptr[row + 1]
+            if end > start:
+                scores[k] = np.cumsum(data[start:end] * centroid[indices[start:end]])[-1]
+        return np.clip(scores, 0.0, 1.0)
 
     def _diversify(
         self,
@@ -419,12 +442,17 @@ class Suggester:
         if candidates.size == 0:
             return [], {}, {}
         vectors = self.index.vectors
-        pool = vectors[candidates]
         top = float(rel[candidates].max())
         relevance = rel[candidates] / top if top > 0 else rel[candidates]
-        similarity = np.clip(np.asarray((pool @ pool.T).todense()), 0.0, 1.0)
         context = [*seeds, *list_items]
-        already = np.clip(np.asarray((pool @ vectors[context].T).todense()), 0.0, 1.0)
+        pool = _Pool(vectors, candidates)
+        similarity: np.ndarray | _Pool
+        if settings.fill_gaps:
+            rows = vectors[candidates]
+            similarity = np.clip(np.asarray((rows @ rows.T).todense()), 0.0, 1.0)
+        else:
+            similarity = pool
+        already = pool.against(context)
         # Relevance already measures closeness to the seeds; counting it again in full as
         # redundancy would make every lambda below 0.5 prefer the least relevant works.
         already[:, : len(seeds)] *= settings.seed_redundancy
@@ -456,8 +484,64 @@ class Suggester:
             scores[int(candidates[p])] = float(
                 settings.lam * relevance[p] - (1 - settings.lam) * redundancy[p]
             )
-            redundancy = np.maximum(redundancy, similarity[:, p])
+            column = similarity(p) if isinstance(similarity, _Pool) else similarity[:, p]
+            redundancy = np.maximum(redundancy, column)
         return chosen, scores, {int(candidates[p]): float(relevance[p]) for p in picks}
+
+
+class _Pool:
+    """Cosine similarities of a pool of candidates (rows of the unit TF-IDF vectors), worked
+    out a column at a time: ``pool(j)`` is column ``j`` of ``clip(P @ P.T, 0, 1)``, and
+    ``against(rows)`` the similarities to other works. MMR reads only the columns of its picks,
+    a few out of hundreds.
+
+    Each similarity is the row's products added one after the other in the order the row keeps
+    its features, as the sparse product adds them, so the values are the same to the last bit.
+    """
+
+    def __init__(self, vectors: sp.csr_matrix, rows: np.ndarray) -> None:
+        self.vectors = vectors
+        indptr = vectors.indptr
+        starts = indptr[rows].astype(np.int64)
+        lengths = (indptr[rows + 1] - indptr[rows]).astype(np.int64)
+        width = int(lengths.max()) if len(lengths) else 0
+        # Each row's features left-aligned in a table, padded with a column of zeros.
+        offsets = np.arange(width)
+        inside = offsets[None, :] < lengths[:, None]
+        slots = (starts[:, None] + offsets[None, :])[inside]
+        self.columns = np.full((len(rows), width), vectors.shape[1], dtype=np.int64)
+        self.values = np.zeros((len(rows), width))
+        self.columns[inside] = vectors.indices[slots]
+        self.values[inside] = vectors.data[slots]
+        self.rows = rows
+        self._dense = np.zeros(vectors.shape[1] + 1)
+        self._found: dict[int, np.ndarray] = {}
+
+    def _similarity_to(self, row: int) -> np.ndarray:
+        vectors = self.vectors
+        start, end = vectors.indptr[row], vectors.indptr[row + 1]
+        features = vectors.indices[start:end]
+        self._dense[features] = vectors.data[start:end]
+        products = self.values * self._dense[self.columns]
+        self._dense[features] = 0.0
+        if products.shape[1] == 0:
+            return np.zeros(len(self.rows))
+        # A running sum along each row adds its terms one after the other, left to right.
+        total = np.cumsum(products, axis=1)[:, -1]
+        return np.clip(total, 0.0, 1.0, out=total)
+
+    def __call__(self, j: int) -> np.ndarray:
+        found = self._found.get(j)
+        if found is None:
+            found = self._found[j] = self._similarity_to(int(self.rows[j]))
+        return found
+
+    def against(self, rows: Sequence[int]) -> np.ndarray:
+        """Similarities of the pool (rows) to other works (columns)."""
+        table = np.zeros((len(self.rows), len(rows)))
+        for k, row in enumerate(rows):
+            table[:, k] = self._similarity_to(int(row))
+        return table
 
 
 def shared_counts_for(incidence: sp.csr_matrix, seeds: Sequence[int]) -> np.ndarray:

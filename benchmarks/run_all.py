@@ -1,0 +1,107 @@
+"""Run the latency benchmark at several catalogue sizes and write benchmarks/RESULTS.md.
+
+    python benchmarks/run_all.py          # 10k and 100k works
+    python benchmarks/run_all.py --big    # and 1M works (needs several GB and a long while)
+
+Each size runs in a process of its own (``suggest_latency.measure``), so that its peak memory
+is its own. The table is written to RESULTS.md next to this file and printed; the last line
+printed is ``speedup_vs_sparql_groupby: X`` for the 100k-work catalogue.
+"""
+
+from __future__ import annotations
+
+import argparse
+import datetime
+import json
+import os
+import platform
+import subprocess
+import sys
+from pathlib import Path
+
+HERE = Path(__file__).resolve().parent
+MODES = ("blend", "content", "graph", "shared-count")
+_DRIVER = (
+    "import json, sys; sys.path.insert(0, {here!r}); "
+    "from suggest_latency import measure; "
+    "print('FIGURES ' + json.dumps(measure({works}, {seeds}, {sparql_seeds}, None)))"
+)
+
+
+def run_size(works: int, seeds: int, sparql_seeds: int) -> dict[str, float]:
+    """The figures of one catalogue size, measured in a fresh process."""
+    code = _DRIVER.format(here=str(HERE), works=works, seeds=seeds, sparql_seeds=sparql_seeds)
+    done = subprocess.run(
+        [sys.executable, "-c", code], capture_output=True, text=True, check=False
+    )
+    if done.returncode != 0:
+        sys.stderr.write(done.stdout + done.stderr)
+        raise SystemExit(f"the benchmark at {works} works failed (exit {done.returncode})")
+    line = next(x for x in done.stdout.splitlines() if x.startswith("FIGURES "))
+    return json.loads(line[len("FIGURES ") :])
+
+
+def table(results: list[dict[str, float]]) -> list[str]:
+    """The results as Markdown lines."""
+    head = ["works", "triples", "top theme", "open s"]
+    head += [f"{m} median / p95 ms" for m in MODES]
+    head += ["SPARQL median ms", "blend vs SPARQL", "shared-count vs SPARQL", "peak MB"]
+    lines = ["| " + " | ".join(head) + " |", "|" + "---|" * len(head)]
+    for f in results:
+        cells = [
+            f"{f['works']:,.0f}",
+            f"{f['triples']:,.0f}",
+            f"{100 * f.get('top_theme_share', 0.0):.1f} %",
+            f"{f['open_s']:.1f}",
+        ]
+        cells += [f"{f[f'{m}_median_ms']:.1f} / {f[f'{m}_p95_ms']:.1f}" for m in MODES]
+        cells += [
+            f"{f['sparql_groupby_median_ms']:.1f}",
+            f"{f['speedup_vs_sparql_groupby']:.1f}x",
+            f"{f['speedup_shared_count_vs_sparql']:.1f}x",
+            f"{f['peak_memory_mb']:.0f}",
+        ]
+        lines.append("| " + " | ".join(cells) + " |")
+    return lines
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--big", action="store_true", help="also run 1M works")
+    parser.add_argument("--seeds", type=int, default=20)
+    parser.add_argument("--sparql-seeds", type=int, default=10)
+    parser.add_argument("--out", type=Path, default=HERE / "RESULTS.md")
+    args = parser.parse_args(argv)
+    sizes = [10_000, 100_000] + ([1_000_000] if args.big else [])
+    results = []
+    for works in sizes:
+        print(f"running {works:,} works ...", file=sys.stderr, flush=True)
+        results.append(run_size(works, args.seeds, args.sparql_seeds))
+    today = datetime.datetime.now(datetime.UTC).date().isoformat()
+    cpus = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else os.cpu_count()
+    machine = (
+        f"nproc {cpus}, Python {platform.python_version()} "
+        f"({platform.python_implementation()}), {platform.system()} {platform.machine()}"
+    )
+    lines = [
+        "# Benchmark results",
+        "",
+        f"`python benchmarks/run_all.py{' --big' if args.big else ''}` on {today}; {machine}.",
+        "",
+        "Synthetic catalogues of benchmarks/synthetic.py (seed 7). *open* is load + profile +",
+        f"index (`open_catalogue`); latencies are top-20 suggestions with MMR over {args.seeds}",
+        "seed works; *SPARQL* is the shared-category GROUP BY query on the same store over",
+        f"{args.sparql_seeds} of them; *peak* is the process's peak resident memory.",
+        "",
+        *table(results),
+        "",
+    ]
+    args.out.write_text("\n".join(lines), encoding="utf-8")
+    print("\n".join(lines))
+    hundred = next(f for f in results if int(f["works"]) == 100_000)
+    print(f"speedup_vs_sparql_groupby: {hundred['speedup_vs_sparql_groupby']:.1f}")
+    return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())

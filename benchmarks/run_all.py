@@ -4,8 +4,10 @@
     python benchmarks/run_all.py --big    # and 1M works (needs several GB and a long while)
 
 Each size runs in a process of its own (``suggest_latency.measure``), so that its peak memory
-is its own. The table is written to RESULTS.md next to this file and printed; the last line
-printed is ``speedup_vs_sparql_groupby: X`` for the 100k-work catalogue.
+is its own; with ``--repeat N`` it runs N times and every figure is the median of the runs
+(timings on a shared machine vary from one process to the next, the SPARQL baseline's most).
+The table is written to RESULTS.md next to this file and printed; the last line printed is
+``speedup_vs_sparql_groupby: X`` for the 100k-work catalogue.
 """
 
 from __future__ import annotations
@@ -15,6 +17,7 @@ import datetime
 import json
 import os
 import platform
+import statistics
 import subprocess
 import sys
 from pathlib import Path
@@ -68,15 +71,21 @@ def table(results: list[dict[str, float]]) -> list[str]:
 def main(argv: list[str] | None = None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--big", action="store_true", help="also run 1M works")
-    parser.add_argument("--seeds", type=int, default=20)
-    parser.add_argument("--sparql-seeds", type=int, default=10)
+    parser.add_argument("--seeds", type=int, default=20, help="seed works per mode")
+    parser.add_argument(
+        "--sparql-seeds", type=int, default=20, help="seed works for the SPARQL baseline"
+    )
+    parser.add_argument("--repeat", type=int, default=1, help="runs per size (medians kept)")
     parser.add_argument("--out", type=Path, default=HERE / "RESULTS.md")
     args = parser.parse_args(argv)
     sizes = [10_000, 100_000] + ([1_000_000] if args.big else [])
     results = []
     for works in sizes:
-        print(f"running {works:,} works ...", file=sys.stderr, flush=True)
-        results.append(run_size(works, args.seeds, args.sparql_seeds))
+        runs = []
+        for run in range(max(1, args.repeat)):
+            print(f"running {works:,} works ({run + 1}) ...", file=sys.stderr, flush=True)
+            runs.append(run_size(works, args.seeds, args.sparql_seeds))
+        results.append({key: statistics.median(r[key] for r in runs) for key in runs[0]})
     today = datetime.datetime.now(datetime.UTC).date().isoformat()
     cpus = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else os.cpu_count()
     machine = (
@@ -86,12 +95,14 @@ def main(argv: list[str] | None = None) -> int:
     lines = [
         "# Benchmark results",
         "",
-        f"`python benchmarks/run_all.py{' --big' if args.big else ''}` on {today}; {machine}.",
+        f"`python benchmarks/run_all.py{' --big' if args.big else ''}"
+        f"{f' --repeat {args.repeat}' if args.repeat > 1 else ''}` on {today}; {machine}.",
         "",
         "Synthetic catalogues of benchmarks/synthetic.py (seed 7). *open* is load + profile +",
         f"index (`open_catalogue`); latencies are top-20 suggestions with MMR over {args.seeds}",
         "seed works; *SPARQL* is the shared-category GROUP BY query on the same store over",
-        f"{args.sparql_seeds} of them; *peak* is the process's peak resident memory.",
+        f"{args.sparql_seeds} of them; *peak* is the process's peak resident memory."
+        + (f" Each figure is the median of {args.repeat} runs." if args.repeat > 1 else ""),
         "",
         *table(results),
         "",

@@ -315,7 +315,11 @@ def _feature_matrix(
 ) -> tuple[list[Feature], sp.csr_matrix, sp.csr_matrix, np.ndarray]:
     """Works x features: 1 for a value a work has, ``decay ** level`` for an ancestor of one
     (the larger when both), columns in order of first appearance (a value, then its
-    ancestors, statement by statement)."""
+    ancestors, statement by statement).
+
+    Worked out on the distinct (path, value) pairs, a few tens of thousands however large the
+    catalogue; only the cells themselves are as many as the statements and their ancestors.
+    """
     themes = {t.path: t for t in profile.themes}
     rows = _theme_rows(columns, themes)
     n_works = columns.n_works
@@ -323,70 +327,115 @@ def _feature_matrix(
         missing = columns.keys[int(rows.work.max())]
         raise KeyError(missing)
     decay = profile.hierarchy_decay
-    # The ancestors of each distinct node value, as one ragged array over value numbers
-    # (values in increasing number, each one's ancestors in the order found).
-    up_counts: dict[int, int] = {}
-    up_value: list[int] = []
-    up_level: list[int] = []
-    if decay > 0 and parents:
-        for v in np.unique(rows.value[rows.value < len(columns.values)]).tolist():
-            ups = ancestors(rows.keys[v], parents)
-            if ups:
-                up_counts[v] = len(ups)
-                for ancestor, level in ups.items():
-                    up_value.append(rows.number(ancestor))
-                    up_level.append(level)
-    counts = np.zeros(len(rows.keys), dtype=np.int64)
-    counts[list(up_counts)] = list(up_counts.values())
-    up_start = np.concatenate([[0], np.cumsum(counts)])
-    # One entry per feature cell as the statements reach it: a value, then its ancestors.
-    values = rows.value
-    per_row = 1 + counts[values]
-    total = int(per_row.sum())
-    step = np.arange(total) - np.repeat(np.cumsum(per_row) - per_row, per_row)
-    e_work = np.repeat(rows.work, per_row)
-    e_path = np.repeat(rows.path, per_row)
-    e_value = np.repeat(values, per_row)
-    e_level = np.zeros(total, dtype=np.int8)
-    is_up = step > 0
-    if is_up.any():
-        slot = up_start[e_value[is_up]] + step[is_up] - 1
-        e_value[is_up] = np.array(up_value, dtype=np.int64)[slot]
-        e_level[is_up] = np.array(up_level, dtype=np.int64)[slot]
     n_keys = max(1, len(rows.keys))
-    distinct, e_column = _first_appearance(e_path.astype(np.int64) * n_keys + e_value)
-    del e_path, e_value, step, is_up
+    # The distinct (path, value) pairs, each with the first statement that has it.
+    pair_keys, first_row, pair_of_row = np.unique(
+        rows.path.astype(np.int64) * n_keys + rows.value, return_index=True, return_inverse=True
+    )
+    pair_of_row = pair_of_row.ravel().astype(np.int32)
+    pair_path = (pair_keys // n_keys).tolist()
+    pair_value = (pair_keys % n_keys).tolist()
+    # Each pair's cells in the order a statement reaches them: the value, then its ancestors
+    # (as features of the same path), with their levels. Keys are numbered as features below.
+    n_node_values = len(columns.values)
+    ups_of: dict[int, dict[str, int]] = {}
+    entry_path: list[int] = []
+    entry_value: list[int] = []
+    entry_level: list[int] = []
+    entry_start = [0]
+    for path, value in zip(pair_path, pair_value, strict=True):
+        entry_path.append(path)
+        entry_value.append(value)
+        entry_level.append(0)
+        if decay > 0 and parents and value < n_node_values:
+            ups = ups_of.get(value)
+            if ups is None:
+                ups = ups_of[value] = ancestors(rows.keys[value], parents)
+            for ancestor, level in ups.items():
+                entry_path.append(path)
+                entry_value.append(rows.number(ancestor))
+                entry_level.append(level)
+        entry_start.append(len(entry_path))
+    n_keys = max(1, len(rows.keys))  # ancestors may have added keys
+    keys = np.array(entry_path, dtype=np.int64) * n_keys + np.array(entry_value, dtype=np.int64)
+    levels = np.array(entry_level, dtype=np.int8)
+    starts = np.array(entry_start, dtype=np.int64)
+    sizes = np.diff(starts)
+    # Where each feature first appears: (first statement of the pair, place in its cells).
+    place = np.arange(len(keys)) - np.repeat(starts[:-1], sizes)
+    appears = np.repeat(first_row.astype(np.int64), sizes) * (MAX_ANCESTOR_LEVELS + 2) + place
+    order = np.lexsort((appears, keys))  # by key, then where it appears
+    is_first = np.ones(len(order), dtype=bool)
+    is_first[1:] = keys[order][1:] != keys[order][:-1]
+    distinct = keys[order][is_first]  # sorted
+    by_appearance = np.argsort(appears[order][is_first], kind="stable")
+    feature_keys = distinct[by_appearance]
+    column_of_distinct = np.empty(len(distinct), dtype=np.int32)
+    column_of_distinct[by_appearance] = np.arange(len(distinct), dtype=np.int32)
+    entry_column = column_of_distinct[np.searchsorted(distinct, keys)]
     paths = columns.paths
-    features = [Feature(paths[k // n_keys], rows.keys[k % n_keys]) for k in distinct.tolist()]
+    features = [
+        Feature(paths[k // n_keys], rows.keys[k % n_keys]) for k in feature_keys.tolist()
+    ]
     strength = np.array(
         [1.0, *(decay**level for level in range(1, MAX_ANCESTOR_LEVELS + 1))], dtype=np.float64
     )
     shape = (n_works, len(features))
-    raw = _max_cells(e_work, e_column, strength[e_level], shape)
-    direct_rows = e_level == 0
-    direct = _max_cells(
-        e_work[direct_rows], e_column[direct_rows], np.ones(int(direct_rows.sum())), shape
-    )
+    # Every cell of every statement: the work, the column, the level (0 for the value itself).
+    per_row = sizes[pair_of_row]
+    slot = np.repeat(starts[:-1][pair_of_row], per_row)
+    slot += np.arange(len(slot)) - np.repeat(np.cumsum(per_row) - per_row, per_row)
+    cells = np.repeat(rows.work.astype(np.int64), per_row) * max(1, len(features))
+    cells += entry_column[slot]
+    cell_level = levels[slot]
+    del slot, per_row
+    raw, direct = _cells(cells, cell_level, strength, shape)
     path_weight = np.array([themes[p].weight if p in themes else 0.0 for p in paths])
-    weights = path_weight[distinct // n_keys].astype(np.float64) if len(distinct) else np.zeros(0)
+    weights = (
+        path_weight[feature_keys // n_keys].astype(np.float64)
+        if len(feature_keys)
+        else np.zeros(0)
+    )
     return features, raw, direct, weights
 
 
-def _max_cells(
-    rows: np.ndarray, cols: np.ndarray, values: np.ndarray, shape: tuple[int, int]
+def _cells(
+    cells: np.ndarray, levels: np.ndarray, strength: np.ndarray, shape: tuple[int, int]
+) -> tuple[sp.csr_matrix, sp.csr_matrix]:
+    """The matrix of the cells (``row * columns + column``), each holding the strength of its
+    lowest level, and the matrix of the cells reached at level 0, holding 1."""
+    if len(cells) == 0:
+        empty = sp.csr_matrix(shape, dtype=np.float64)
+        return empty, empty.copy()
+    # Cell and level in one number, sorted in place: each cell's lowest level comes first.
+    tagged = cells * 16 + levels
+    tagged.sort()
+    cell = tagged >> 4
+    first = np.empty(len(tagged), dtype=bool)
+    first[0] = True
+    np.not_equal(cell[1:], cell[:-1], out=first[1:])
+    cell = cell[first]
+    lowest = (tagged[first] & 15).astype(np.int8)
+    del tagged, first
+    width = max(1, shape[1])
+    row = cell // width
+    column = (cell % width).astype(np.int32)
+    raw = _csr(row, column, strength[lowest], shape)
+    at_zero = lowest == 0
+    direct = _csr(row[at_zero], column[at_zero], np.ones(int(at_zero.sum())), shape)
+    return raw, direct
+
+
+def _csr(
+    row: np.ndarray, column: np.ndarray, data: np.ndarray, shape: tuple[int, int]
 ) -> sp.csr_matrix:
-    """A sparse matrix holding, for each (row, column) named, the largest value given for it."""
-    if len(rows) == 0:
-        return sp.csr_matrix(shape, dtype=np.float64)
-    keys = rows.astype(np.int64) * max(1, shape[1]) + cols
-    order = np.argsort(keys, kind="stable")
-    keys = keys[order]
-    starts = np.flatnonzero(np.concatenate([[True], keys[1:] != keys[:-1]]))
-    largest = np.maximum.reduceat(values[order], starts)
-    cells = keys[starts]
-    return sp.csr_matrix(
-        (largest, (cells // max(1, shape[1]), cells % max(1, shape[1]))), shape=shape
-    )
+    """A CSR matrix of entries already sorted by row and column, none twice."""
+    index_type = np.int32 if len(data) < 2**31 and shape[1] < 2**31 else np.int64
+    indptr = np.zeros(shape[0] + 1, dtype=index_type)
+    np.cumsum(np.bincount(row, minlength=shape[0]), out=indptr[1:])
+    matrix = sp.csr_matrix((data, column.astype(index_type, copy=False), indptr), shape=shape)
+    matrix.has_sorted_indices = True
+    return matrix
 
 
 def _records(

@@ -209,7 +209,8 @@ class NewestOnlyRunner(QObject):
         self._thread.start()
 
     def work(self, generation: int, stale: Stale, *args: object) -> object:
-        raise NotImplementedError
+        """Compute an answer in the worker thread; each kind of worker defines its own."""
+        raise TypeError(f"{type(self).__name__} defines no work(); it cannot answer requests")
 
     def _ask(self, *args: object) -> int:
         self.latest += 1

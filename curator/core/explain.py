@@ -118,7 +118,8 @@ class Explainer:
             broader = column not in direct_row or not has_direct
             found.append((-weight, text[1], place, weight, broader, holders, text))
         found.sort()
-        # As _drop_redundant_broader: the direct themes, then broader ones to fill the list.
+        # A broader theme is kept only when no narrower shared theme already says as much: the
+        # direct themes, then broader ones to fill the list.
         narrower = [t for t in found if not t[4]]
         wider = [t for t in found if t[4]]
         kept = sorted(
@@ -300,11 +301,3 @@ def _verb(link_label: str) -> str:
     if link_label.endswith((" with", " to", " of")):
         return link_label
     return f"was {link_label} of"
-
-
-def _drop_redundant_broader(themes: list[SharedTheme]) -> list[SharedTheme]:
-    """Keep a broader theme only when no narrower shared theme already says as much."""
-    direct = [t for t in themes if not t.broader]
-    broader = [t for t in themes if t.broader]
-    return sorted(direct + broader[: max(0, SHARED_THEMES_SHOWN - len(direct))],
-                  key=lambda t: (-t.weight, t.label))

@@ -603,11 +603,10 @@ def _graph(
     edge_work, edge_value, edge_weight = rows.work[kept], rows.value[kept], weight[kept]
     # Node numbers of the values, in order of first appearance (works keep their own).
     is_value = value_work[edge_value] < 0
-    distinct, number = _first_appearance(edge_value[is_value])
+    distinct = _first_appearance(edge_value[is_value])[0]
     value_node = np.full(len(rows.keys), -1, dtype=np.int64)
     value_node[distinct] = n_works + np.arange(len(distinct))
     value_node[value_work >= 0] = value_work[value_work >= 0]
-    _ = number
     node: dict[str, int] = {w: i for i, w in enumerate(works)}
     for v in distinct.tolist():
         node[rows.keys[v]] = len(node)

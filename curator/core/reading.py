@@ -867,17 +867,6 @@ def read_outgoing(catalogue: Catalogue, subjects: Iterable[str]) -> list[tuple[s
     return CatalogueReader(catalogue).outgoing(subjects)
 
 
-def iter_rows(columns: StatementColumns, mask: np.ndarray) -> Iterator[tuple[int, int, int]]:
-    """(work, path, value) numbers of the link rows whose path the mask keeps, in order."""
-    keep = mask[columns.link_path]
-    return zip(
-        columns.link_work[keep].tolist(),
-        columns.link_path[keep].tolist(),
-        columns.link_value[keep].tolist(),
-        strict=True,
-    )
-
-
 @contextlib.contextmanager
 def paused_gc() -> Iterator[None]:
     """Pause Python's cycle collector while a catalogue is read and indexed.

@@ -16,7 +16,6 @@ import json
 import os
 import pickle
 import shutil
-import sys
 import tempfile
 import time
 from collections.abc import Sequence
@@ -24,6 +23,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from curator import __version__
+from curator.core.files import user_folder
 
 #: Bumped whenever the pickled index changes shape.
 INDEX_FORMAT = 1
@@ -34,17 +34,7 @@ _CHUNK = 1 << 20
 
 def cache_folder() -> Path:
     """The user cache folder of curator (``CURATOR_CACHE_DIR`` overrides it)."""
-    override = os.environ.get("CURATOR_CACHE_DIR")
-    if override:
-        return Path(override)
-    if sys.platform.startswith("win"):
-        base = Path(os.environ.get("LOCALAPPDATA", Path.home() / "AppData" / "Local"))
-    elif sys.platform == "darwin":
-        base = Path.home() / "Library" / "Caches"
-    else:
-        base = Path(os.environ.get("XDG_CACHE_HOME", Path.home() / ".cache"))
-    return base / "curator"
-
+    return user_folder("cache", "CURATOR_CACHE_DIR")
 
 def file_digest(path: Path) -> str:
     digest = hashlib.sha256()

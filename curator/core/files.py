@@ -5,8 +5,11 @@ from __future__ import annotations
 import contextlib
 import os
 import stat
+import sys
 import tempfile
 from pathlib import Path
+
+from curator.core.errors import CuratorError
 
 #: Temporary files are named ``.<name>.<random>.part`` in the folder of the file they become.
 TEMP_SUFFIX = ".part"
@@ -76,3 +79,45 @@ def _naming(exc: OSError, path: Path) -> OSError:
 
 def write_text_atomically(path: Path, text: str) -> None:
     write_bytes_atomically(path, text.encode("utf-8"))
+
+
+def read_utf8_text(path: Path, error: type[CuratorError], hint: str) -> str:
+    """The text of a UTF-8 file (a byte-order mark is dropped).
+
+    Raises:
+        ``error``: unreadable, or not UTF-8, naming the line and column of the first bad byte
+        and ending with ``hint`` (what the curator can do about it).
+    """
+    try:
+        data = Path(path).read_bytes()
+    except OSError as exc:
+        raise error(f"{path}: cannot be read ({exc.strerror or exc}).") from None
+    try:
+        return data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        start = exc.start + (3 if data.startswith(b"\xef\xbb\xbf") else 0)
+        line = data.count(b"\n", 0, start) + 1
+        line_start = data.rfind(b"\n", 0, start) + 1
+        column = len(data[line_start:start].decode("utf-8", errors="replace")) + 1
+        raise error(
+            f"{path}, line {line}, column {column}: not UTF-8 text "
+            f"(byte 0x{data[start]:02x}); {hint}"
+        ) from None
+
+
+def user_folder(kind: str, override_variable: str) -> Path:
+    """curator's folder of the given kind ("cache" or "state") in the platform's usual place;
+    the environment variable ``override_variable`` names another folder instead."""
+    override = os.environ.get(override_variable)
+    if override:
+        return Path(override)
+    home = Path.home()
+    if sys.platform.startswith("win"):
+        base = Path(os.environ.get("LOCALAPPDATA", home / "AppData" / "Local"))
+    elif sys.platform == "darwin":
+        base = home / "Library" / ("Caches" if kind == "cache" else "Application Support")
+    elif kind == "cache":
+        base = Path(os.environ.get("XDG_CACHE_HOME", home / ".cache"))
+    else:
+        base = Path(os.environ.get("XDG_STATE_HOME", home / ".local" / "state"))
+    return base / "curator"

@@ -17,6 +17,7 @@ from pathlib import Path
 from typing import Literal
 
 from curator.core.errors import CuratorError
+from curator.core.files import read_utf8_text
 from curator.core.index import Index
 from curator.core.labels import fold
 
@@ -69,21 +70,9 @@ def read_outside_list(path: Path) -> list[ListLine]:
     Raises:
         OutsideListError: unreadable, not UTF-8, or a CSV without a title or iri column.
     """
-    try:
-        data = Path(path).read_bytes()
-    except OSError as exc:
-        raise OutsideListError(f"{path}: cannot be read ({exc.strerror or exc}).") from None
-    try:
-        text = data.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        start = exc.start + (3 if data.startswith(b"\xef\xbb\xbf") else 0)
-        line = data.count(b"\n", 0, start) + 1
-        line_start = data.rfind(b"\n", 0, start) + 1
-        column = len(data[line_start:start].decode("utf-8", errors="replace")) + 1
-        raise OutsideListError(
-            f"{path}, line {line}, column {column}: not UTF-8 text (byte 0x{data[start]:02x}); "
-            "save the list as UTF-8 and import it again."
-        ) from None
+    text = read_utf8_text(
+        Path(path), OutsideListError, "save the list as UTF-8 and import it again."
+    )
     return parse_outside_list(
         text, csv_format=Path(path).suffix.lower() in (".csv", ".tsv"), source=str(path)
     )

@@ -18,7 +18,7 @@ from pathlib import Path
 from typing import Any, Literal
 
 from curator.core.errors import CuratorError
-from curator.core.files import write_text_atomically
+from curator.core.files import read_utf8_text, write_text_atomically
 
 SESSION_FORMAT = "curator-session"
 #: The version this curator writes. History:
@@ -316,21 +316,7 @@ class Session:
         Raises:
             SessionError: unreadable, not UTF-8 (naming line and column), or see :meth:`loads`.
         """
-        try:
-            data = Path(path).read_bytes()
-        except OSError as exc:
-            raise SessionError(f"{path}: cannot be read ({exc.strerror or exc}).") from None
-        try:
-            text = data.decode("utf-8-sig")
-        except UnicodeDecodeError as exc:
-            start = exc.start + (3 if data.startswith(b"\xef\xbb\xbf") else 0)
-            line = data.count(b"\n", 0, start) + 1
-            line_start = data.rfind(b"\n", 0, start) + 1
-            column = len(data[line_start:start].decode("utf-8", errors="replace")) + 1
-            raise SessionError(
-                f"{path}, line {line}, column {column}: not UTF-8 text "
-                f"(byte 0x{data[start]:02x}); not a curator session file."
-            ) from None
+        text = read_utf8_text(Path(path), SessionError, "not a curator session file.")
         return cls.loads(text, source=str(path))
 
     @classmethod

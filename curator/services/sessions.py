@@ -5,12 +5,11 @@ from __future__ import annotations
 
 import contextlib
 import os
-import sys
 import time
 from dataclasses import dataclass
 from pathlib import Path
 
-from curator.core.files import TEMP_SUFFIX
+from curator.core.files import TEMP_SUFFIX, user_folder
 from curator.core.session import ListEntry, ListSettings, Session, SessionError
 from curator.core.suggest import Suggestion, SuggestionResult, SuggestSettings
 from curator.core.targets import Targets
@@ -89,18 +88,8 @@ def entry_for_work(workspace: Workspace, iri: str) -> ListEntry:
 
 
 def state_folder() -> Path:
-    """Where curator keeps recovery files: the platform's user state or data folder."""
-    override = os.environ.get("CURATOR_STATE_DIR")
-    if override:
-        return Path(override)
-    if sys.platform.startswith("win"):
-        base = Path(os.environ.get("LOCALAPPDATA", Path.home() / "AppData" / "Local"))
-    elif sys.platform == "darwin":
-        base = Path.home() / "Library" / "Application Support"
-    else:
-        base = Path(os.environ.get("XDG_STATE_HOME", Path.home() / ".local" / "state"))
-    return base / "curator"
-
+    """Where curator keeps recovery files (``CURATOR_STATE_DIR`` overrides it)."""
+    return user_folder("state", "CURATOR_STATE_DIR")
 
 def recovery_path() -> Path:
     return state_folder() / "recovery.curator.json"

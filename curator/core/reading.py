@@ -873,12 +873,18 @@ def paused_gc() -> Iterator[None]:
 
     Reading builds millions of small objects that all live on (tuples, labels, records); the
     collector would walk all of them again and again as they pile up, for nothing, since none
-    of them is garbage. Reference counting still frees what is dropped.
+    of them is garbage. Reference counting still frees what is dropped. Once the work is done,
+    what it built is frozen out of later collections (``gc.freeze``), so that a suggestion made
+    just after opening does not pay for one full walk over the whole index.
     """
     was_enabled = gc.isenabled()
     gc.disable()
+    done = False
     try:
         yield
+        done = True
     finally:
+        if done:
+            gc.freeze()
         if was_enabled:
             gc.enable()

@@ -233,7 +233,10 @@ def personalized_pagerank_push(
     )
     r = _restart_vector(n, personalization)
     x = np.zeros(n)
-    active = np.flatnonzero(r)
+    if isinstance(personalization, np.ndarray):
+        active = np.flatnonzero(r)
+    else:  # a few seeds: no need to look at every node
+        active = np.array(sorted(k for k, w in personalization.items() if w), dtype=np.int64)
     dangling = active[degree[active] == 0.0]
     if dangling.size:
         # A walker there can only restart: its mass stays where it is.
@@ -258,7 +261,14 @@ def personalized_pagerank_push(
         # Every edge of every pushed node, gathered at once.
         slots = np.arange(int(ends[-1])) + np.repeat(starts[active] - (ends - edges), edges)
         reached = targets[slots]
-        np.add.at(r, reached, shares[slots] * np.repeat(mass, edges))
+        spread = shares[slots] * np.repeat(mass, edges)
+        if 8 * reached.size > n:
+            # Many edges (a hub such as a form heading was pushed): one counting pass over
+            # all nodes is quicker than adding edge by edge (the same sums up to rounding).
+            r += np.bincount(reached, weights=spread, minlength=n)
+            active = np.flatnonzero(r > epsilon * degree)
+            continue
+        np.add.at(r, reached, spread)
         over = reached[r[reached] > epsilon * degree[reached]]
         if over.size:
             over.sort()

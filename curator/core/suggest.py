@@ -204,8 +204,7 @@ class Suggester:
     def graph_scores(self, seeds: Sequence[int], *, exact: bool = False) -> np.ndarray:
         """Personalized PageRank mass of every work, restarting uniformly at the seeds."""
         graph = self.index.graph
-        personalization = np.zeros(graph.shape[0])
-        personalization[list(seeds)] = 1.0
+        personalization = dict.fromkeys((int(s) for s in seeds), 1.0)
         if graph.nnz == 0:
             return np.zeros(self.index.size)
         if exact:

@@ -44,6 +44,34 @@ class EndpointSettings:
     max_retry_after: float = 30.0
 
 
+_STRING_ESCAPES = {
+    "\\": "\\\\",
+    '"': '\\"',
+    "\n": "\\n",
+    "\r": "\\r",
+    "\t": "\\t",
+    "\b": "\\b",
+    "\f": "\\f",
+}
+
+
+def sparql_string(text: str) -> str:
+    """``text`` as a quoted SPARQL string literal, every character that could end it or
+    break the line escaped (SPARQL 1.1 grammar, STRING_LITERAL_QUOTE and ECHAR); other
+    control characters become ``\\uXXXX`` escapes. What a curator types goes into a query
+    only through here."""
+    out = []
+    for char in text:
+        escaped = _STRING_ESCAPES.get(char)
+        if escaped is not None:
+            out.append(escaped)
+        elif ord(char) < 0x20 or char in "\u2028\u2029":
+            out.append(f"\\u{ord(char):04X}")
+        else:
+            out.append(char)
+    return '"' + "".join(out) + '"'
+
+
 def _term(binding: dict[str, Any]) -> Term:
     kind = binding.get("type")
     value = binding.get("value", "")

@@ -11,7 +11,7 @@ from __future__ import annotations
 
 import re
 from collections import defaultdict
-from collections.abc import Mapping, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -27,7 +27,7 @@ from curator.core.reading import (
     StatementColumns,
     WorkStatements,
 )
-from curator.core.similarity import tfidf_vectors
+from curator.core.similarity import document_frequency, tfidf_vectors
 from curator.core.vocab import BF, SCHEMA, SCHEMA_HTTP
 
 _YEAR = re.compile(r"(-?\d{4})")
@@ -131,6 +131,12 @@ class Index:
         return self.profile.theme(path)
 
 
+#: Given the feature columns and their document frequencies among the works indexed, the
+#: frequencies in the whole collection and its number of works (endpoint mode indexes a
+#: neighbourhood of the seeds but weighs themes by the whole catalogue).
+FrequencySource = Callable[[Sequence[Feature], np.ndarray], tuple[np.ndarray, int]]
+
+
 def build_index(
     catalogue: Catalogue,
     profile: Profile,
@@ -139,11 +145,14 @@ def build_index(
     types: dict[str, set[str]] | None = None,
     progress: Progress | None = None,
     reader: CatalogueReader | None = None,
+    frequencies: FrequencySource | None = None,
 ) -> Index:
     """Read the catalogue through ``profile`` and build the matrices and the graph.
 
     ``statements``, ``types`` and a ``reader`` that read them may be passed in when the caller
-    has them already (profile detection reads the same).
+    has them already (profile detection reads the same). ``frequencies``, when given, says how
+    many works of the whole collection have each feature (see :data:`FrequencySource`): the
+    idf then comes from there rather than from the works at hand.
 
     Raises:
         Cancelled: the progress token was cancelled.
@@ -168,7 +177,11 @@ def build_index(
     records = _records(columns, profile, works, candidates, labels, types)
     progress.report("Building features", 0.7)
     features, raw, direct, weights = _feature_matrix(columns, profile, parents)
-    vectors, idf = tfidf_vectors(raw, weights)
+    if frequencies is None:
+        vectors, idf = tfidf_vectors(raw, weights)
+    else:
+        df, n_documents = frequencies(features, document_frequency(raw))
+        vectors, idf = tfidf_vectors(raw, weights, frequencies=df, n_documents=n_documents)
     progress.report("Building graph", 0.8)
     creators = {c for r in records for c in r.creators}
     creator_edges = _creator_edges(reader, profile, creators)

@@ -68,7 +68,11 @@ def l2_normalize_rows(matrix: sp.csr_matrix) -> sp.csr_matrix:
 
 
 def tfidf_vectors(
-    raw: sp.csr_matrix, column_weights: np.ndarray | None = None
+    raw: sp.csr_matrix,
+    column_weights: np.ndarray | None = None,
+    *,
+    frequencies: np.ndarray | None = None,
+    n_documents: int | None = None,
 ) -> tuple[sp.csr_matrix, np.ndarray]:
     """TF-IDF rows with per-column weights, L2-normalised, and the idf used.
 
@@ -76,9 +80,16 @@ def tfidf_vectors(
     an ancestor of one). With all ``column_weights`` equal to one the rows equal scikit-learn's
     ``TfidfTransformer(norm="l2", smooth_idf=True)``; the weights scale each property's columns
     as in the property-wise vector spaces of Di Noia et al. (2012).
+
+    ``frequencies`` and ``n_documents`` give the idf of a larger collection than the rows at
+    hand (endpoint mode indexes only a neighbourhood of the seeds, but must weigh themes as
+    the whole catalogue does); by default both are read off ``raw``.
     """
     raw = sp.csr_matrix(raw, dtype=np.float64)
-    idf = smooth_idf(document_frequency(raw), raw.shape[0])
+    idf = smooth_idf(
+        document_frequency(raw) if frequencies is None else frequencies,
+        raw.shape[0] if n_documents is None else n_documents,
+    )
     factors = idf if column_weights is None else idf * np.asarray(column_weights, dtype=np.float64)
     weighted = raw @ sp.diags(factors)
     return l2_normalize_rows(sp.csr_matrix(weighted)), idf

@@ -12,6 +12,7 @@ from pathlib import Path
 from curator.cli import publish_commands
 from curator.core.errors import CuratorError
 from curator.core.suggest import DEFAULT_LAMBDA, MODES, SuggestionResult, SuggestSettings
+from curator.services.endpoint import EndpointWorkspace, open_endpoint, profile_view
 from curator.services.profiles import profile_lines, profile_to_json
 from curator.services.suggestions import SuggestRequest, result_to_json, suggest
 from curator.services.workspace import Workspace, open_catalogue
@@ -39,6 +40,19 @@ def _catalogue_options(parser: argparse.ArgumentParser) -> None:
         type=Path,
         metavar="PATH",
         help="an RDF file or folder (repeatable); default: the bundled demo collection",
+    )
+    parser.add_argument(
+        "--endpoint",
+        metavar="URL",
+        help="a SPARQL 1.1 endpoint's query URL to use as the catalogue instead of files "
+        "(suggest and profile)",
+    )
+    parser.add_argument(
+        "--timeout",
+        type=float,
+        default=30.0,
+        metavar="SECONDS",
+        help="longest wait for one answer of the endpoint (default 30)",
     )
     parser.add_argument("--format", dest="format_name", help="RDF syntax of the files")
     parser.add_argument("--profile", type=Path, help="a saved profile (TOML) to use as it is")
@@ -97,7 +111,31 @@ def build_parser() -> argparse.ArgumentParser:
     return parser
 
 
-def _open(args: argparse.Namespace) -> Workspace:
+def _open(args: argparse.Namespace) -> Workspace | EndpointWorkspace:
+    """The catalogue named on the command line: files (or the demo), or an endpoint."""
+    if getattr(args, "endpoint", None):
+        if args.catalogue:
+            raise CuratorError(
+                "Give either --catalogue files or --endpoint URL, not both: the endpoint is the "
+                "whole catalogue."
+            )
+        if args.timeout <= 0:
+            raise CuratorError("--timeout must be a positive number of seconds.")
+        return open_endpoint(
+            args.endpoint,
+            languages=args.languages,
+            profile_path=args.profile,
+            timeout=args.timeout,
+        )
+    return _open_files(args)
+
+
+def _open_files(args: argparse.Namespace) -> Workspace:
+    if getattr(args, "endpoint", None):
+        raise CuratorError(
+            f"curator {args.command} reads catalogue files; --endpoint works with suggest and "
+            "profile."
+        )
     return open_catalogue(
         args.catalogue or None,
         profile_path=args.profile,
@@ -135,10 +173,13 @@ def _run_suggest(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
-def suggestion_table(workspace: Workspace, result: SuggestionResult) -> list[str]:
+def suggestion_table(
+    workspace: Workspace | EndpointWorkspace, result: SuggestionResult
+) -> list[str]:
     """The suggestions as a table no wider than 100 columns, each with its rationale below."""
     index = workspace.index
     finder = workspace.finder
+    assert index is not None and finder is not None  # an endpoint's, after its suggestion
 
     def seed_line(record: object) -> str:
         position = index.position[record.iri]  # type: ignore[attr-defined]
@@ -172,7 +213,8 @@ def _fit(text: str, width: int) -> str:
 
 
 def _run_profile(args: argparse.Namespace) -> int:
-    workspace = _open(args)
+    opened = _open(args)
+    workspace = profile_view(opened) if isinstance(opened, EndpointWorkspace) else opened
     if args.save:
         workspace.profile.save(args.save)
     if args.json:
@@ -214,8 +256,8 @@ def main(argv: Sequence[str] | None = None) -> int:
         "suggest": _run_suggest,
         "profile": _run_profile,
         "open": _run_open,
-        "audit": lambda a: publish_commands.run_audit(_open(a), a),
-        "export": lambda a: publish_commands.run_export(_open(a), a),
+        "audit": lambda a: publish_commands.run_audit(_open_files(a), a),
+        "export": lambda a: publish_commands.run_export(_open_files(a), a),
     }
     try:
         return handlers[args.command](args)

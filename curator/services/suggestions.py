@@ -4,11 +4,14 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass, field
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from curator.core.index import Index, WorkRecord
 from curator.core.suggest import SuggestionResult, SuggestSettings
 from curator.services.workspace import Workspace
+
+if TYPE_CHECKING:
+    from curator.services.endpoint import EndpointWorkspace
 
 
 @dataclass(frozen=True)
@@ -21,13 +24,19 @@ class SuggestRequest:
     dismissed: tuple[str, ...] = ()
 
 
-def suggest(workspace: Workspace, request: SuggestRequest) -> SuggestionResult:
-    """Resolve every name, then suggest.
+def suggest(
+    workspace: Workspace | EndpointWorkspace, request: SuggestRequest
+) -> SuggestionResult:
+    """Resolve every name, then suggest (on an endpoint, over the neighbourhood the endpoint
+    picks; see :mod:`curator.services.endpoint`).
 
     Raises:
         SeedError: a name matches no work, or several equally.
         SettingsError: settings out of range, or a kind or property the catalogue lacks.
+        EndpointError: the endpoint failed.
     """
+    if not isinstance(workspace, Workspace):
+        return workspace.suggest(request)
     finder = workspace.finder
     seeds = [finder.resolve(s) for s in request.seeds]
     list_items = [finder.resolve(s) for s in request.list_items]

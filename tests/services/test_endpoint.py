@@ -1,4 +1,5 @@
-"""A SPARQL 1.1 endpoint as the catalogue: a real Oxigraph server, and a misbehaving test server.
+"""A SPARQL 1.1 endpoint as the catalogue: a real Oxigraph server (tests/services/conftest.py), and
+a misbehaving test server.
 
 The Oxigraph server (PyPI package ``oxigraph``) is a second SPARQL engine: endpoint mode must give
 the same suggestions and explanations as the embedded store.
@@ -8,14 +9,9 @@ from __future__ import annotations
 
 import http.server
 import json
-import shutil
-import socket
-import subprocess
 import threading
 import time
 import urllib.parse
-import urllib.request
-from pathlib import Path
 from typing import ClassVar
 
 import pytest
@@ -25,48 +21,6 @@ from curator.core.index import build_index
 from curator.core.profile import detect_profile
 from curator.core.reading import sparql_iri
 from curator.core.suggest import Suggester, SuggestSettings
-from curator.services.workspace import demo_collection_path
-
-SERVER = shutil.which("oxigraph") or str(Path(__file__).resolve().parents[2] / ".venv/bin/oxigraph")
-
-
-def free_port() -> int:
-    with socket.socket() as s:
-        s.bind(("127.0.0.1", 0))
-        return s.getsockname()[1]
-
-
-@pytest.fixture(scope="module")
-def oxigraph_server(tmp_path_factory):
-    if not Path(SERVER).exists():
-        pytest.skip("the oxigraph server is not installed (pip install oxigraph)")
-    port = free_port()
-    folder = tmp_path_factory.mktemp("oxigraph")
-    process = subprocess.Popen(
-        [SERVER, "serve", "--location", str(folder / "db"), "--bind", f"127.0.0.1:{port}"],
-        stdout=subprocess.DEVNULL,
-        stderr=subprocess.DEVNULL,
-    )
-    base = f"http://127.0.0.1:{port}"
-    try:
-        for _ in range(100):
-            try:
-                urllib.request.urlopen(f"{base}/query?query=ASK%7B%7D", timeout=1).read()
-                break
-            except OSError:
-                time.sleep(0.1)
-        for path in sorted(demo_collection_path().glob("*.ttl")):
-            request = urllib.request.Request(
-                f"{base}/store?default",
-                data=path.read_bytes(),
-                headers={"Content-Type": "text/turtle"},
-                method="POST",
-            )
-            urllib.request.urlopen(request, timeout=30).read()
-        yield f"{base}/query"
-    finally:
-        process.terminate()
-        process.wait(timeout=10)
 
 
 def test_endpoint_mode_gives_the_same_suggestions(oxigraph_server, demo_workspace):

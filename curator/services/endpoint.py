@@ -173,10 +173,49 @@ class EndpointWorkspace:
     def search(self, text: str, limit: int = 20) -> list[tuple[TitleMatch, WorkRecord]]:
         """Works whose titles start with, contain or resemble ``text``, best first, with their
         records (positions are those of a small index of the matches)."""
+        return self.search_labelled(text, limit)[0]
+
+    def search_labelled(
+        self, text: str, limit: int = 20
+    ) -> tuple[list[tuple[TitleMatch, WorkRecord]], Index | None]:
+        """As :meth:`search`, with the small index of the matches, which labels their creators
+        and kinds (so a search popup can tell namesakes apart)."""
         if not fold(text):
-            return []
+            return [], None
         finder = self._finder(self._title_works(text))
-        return [(m, finder.index.records[m.position]) for m in finder.search(text, limit)]
+        found = [(m, finder.index.records[m.position]) for m in finder.search(text, limit)]
+        return found, finder.index
+
+    def works_among(self, iris: Sequence[str]) -> set[str]:
+        """Which of ``iris`` are works of the endpoint, asked in a few queries rather than one
+        per IRI (a saved list may hold works the endpoint lacks). Found ones are remembered, so
+        :meth:`resolve` does not ask again."""
+        found = {i for i in iris if self._resolved.get(i) == i}
+        usable: list[str] = []
+        for iri in dict.fromkeys(iris):
+            if iri in found:
+                continue
+            try:
+                usable.append(_checked(iri))
+            except SeedError:
+                continue  # not an IRI at all: certainly not a work here
+        classes = " ".join(f"<{c}>" for c in self.profile.work_classes)
+        for start in range(0, len(usable), 100):
+            values = " ".join(f"<{i}>" for i in usable[start : start + 100])
+            rows = self.endpoint.select(
+                f"SELECT DISTINCT ?w WHERE {{ VALUES ?w {{ {values} }} "
+                f"?w a ?c . FILTER(?c IN ({classes.replace(' ', ', ')})) }}"
+            )[1]
+            for (work,) in rows:
+                if isinstance(work, ox.NamedNode):
+                    found.add(work.value)
+                    self._resolved[work.value] = work.value
+        return found
+
+    def describe_works(self, iris: Sequence[str]) -> Index:
+        """An index of just these works (their records, themes and labels), with the
+        endpoint's global frequencies: enough to audit or export a list."""
+        return neighbourhood(self.endpoint, self.profile, self.frequencies, list(iris)).index
 
     def details(self, iri: str) -> tuple[WorkRecord, Index]:
         """A work's record and an index that labels what it points at.

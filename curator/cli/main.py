@@ -106,8 +106,15 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--save", type=Path, metavar="FILE", help="write the profile as TOML")
 
     publish_commands.add_parsers(commands, _catalogue_options)
-    o = commands.add_parser("open", help="open the window on catalogue files or folders")
-    o.add_argument("paths", nargs="+", metavar="PATH", help="an RDF file or folder")
+    o = commands.add_parser(
+        "open", help="open the window on catalogue files or folders, or on an endpoint"
+    )
+    o.add_argument("paths", nargs="*", metavar="PATH", help="an RDF file or folder")
+    o.add_argument("--endpoint", metavar="URL", help="a SPARQL 1.1 endpoint's query URL instead")
+    o.add_argument(
+        "--timeout", type=float, default=30.0, metavar="SECONDS",
+        help="longest wait for one answer of the endpoint (default 30)",
+    )
     return parser
 
 
@@ -126,6 +133,7 @@ def _open(args: argparse.Namespace) -> Workspace | EndpointWorkspace:
             languages=args.languages,
             profile_path=args.profile,
             timeout=args.timeout,
+            use_disk_cache=True,
         )
     return _open_files(args)
 
@@ -227,7 +235,9 @@ def _run_profile(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
-def _run_window(paths: list[str] | None) -> int:
+def _run_window(
+    paths: list[str] | None, endpoint: str | None = None, timeout: float = 30.0
+) -> int:
     """The window, imported only here so that the command line works without Qt installed."""
     try:
         from curator.gui import run
@@ -237,10 +247,18 @@ def _run_window(paths: list[str] | None) -> int:
             "pip install 'curator[gui]', or use curator suggest.\n"
         )
         return EXIT_BAD_INPUT
+    if endpoint is not None:
+        return run(None, endpoint=endpoint, timeout=timeout)
     return run(paths)
 
 
 def _run_open(args: argparse.Namespace) -> int:
+    if args.endpoint:
+        if args.paths:
+            raise CuratorError("Give either catalogue paths or --endpoint URL, not both.")
+        return _run_window(None, args.endpoint, args.timeout)
+    if not args.paths:
+        raise CuratorError("curator open needs a catalogue file or folder, or --endpoint URL.")
     missing = [p for p in args.paths if not Path(p).exists()]
     if missing:
         raise CuratorError(f"{missing[0]}: no such file or folder.")

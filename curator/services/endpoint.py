@@ -7,6 +7,8 @@ suggestion over a neighbourhood of the seeds indexed locally (see :mod:`curator.
 
 from __future__ import annotations
 
+import contextlib
+import hashlib
 import itertools
 import re
 import time
@@ -17,14 +19,15 @@ from pathlib import Path
 import pyoxigraph as ox
 
 from curator.core.endpoint import EndpointError, EndpointSettings, SparqlEndpoint, sparql_string
-from curator.core.errors import SeedError, SettingsError
-from curator.core.files import user_folder
+from curator.core.errors import CuratorError, SeedError, SettingsError
+from curator.core.files import user_folder, write_text_atomically
 from curator.core.index import Index, WorkRecord
 from curator.core.labels import fold
 from curator.core.profile import Profile
 from curator.core.progress import Progress, silent
 from curator.core.remote import (
     DEFAULT_CANDIDATES,
+    FREQUENCIES_MAX_AGE,
     Frequencies,
     NeighbourhoodSuggester,
     candidate_query,
@@ -351,18 +354,40 @@ def open_endpoint(
         ) from None
     langs = tuple(languages) if languages else preferred_languages()
     progress.report("Profiling the endpoint", 0.0)
+    folder = None
+    if use_disk_cache:
+        folder = cache_folder or user_folder("cache", "CURATOR_CACHE_DIR")
     if profile_path is not None:
         profile = Profile.load(profile_path)
         profile = replace(profile, languages=langs) if languages else profile
     else:
-        profile = detect_profile_remote(endpoint, languages=langs, progress=progress.part(0, 0.5))
-    folder = None
-    if use_disk_cache:
-        folder = cache_folder or user_folder("cache", "CURATOR_CACHE_DIR")
+        profile = _detected_profile(endpoint, langs, folder, progress.part(0, 0.5))
     frequencies = frequencies_for(
         endpoint, profile, cache_folder=folder, progress=progress.part(0.5, 1.0)
     )
     return EndpointWorkspace(endpoint, profile, frequencies, candidates=candidates)
+
+
+def _detected_profile(
+    endpoint: SparqlEndpoint,
+    languages: tuple[str, ...],
+    folder: Path | None,
+    progress: Progress,
+) -> Profile:
+    """The endpoint's detected profile, kept in ``folder`` for as long as its frequencies are:
+    detecting it takes a few full passes over a large catalogue."""
+    file = None
+    if folder is not None:
+        key = hashlib.sha256(f"{endpoint.settings.url}\n{' '.join(languages)}".encode())
+        file = folder / f"endpoint-profile-{key.hexdigest()[:24]}.toml"
+        with contextlib.suppress(OSError, CuratorError):
+            if time.time() - file.stat().st_mtime < FREQUENCIES_MAX_AGE:
+                return Profile.load(file)
+    profile = detect_profile_remote(endpoint, languages=languages, progress=progress)
+    if file is not None:
+        with contextlib.suppress(OSError):
+            write_text_atomically(file, profile.to_toml())
+    return profile
 
 
 class _Counted:

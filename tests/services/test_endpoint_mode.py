@@ -7,6 +7,7 @@ mode, which reads the same files into pyoxigraph.
 from __future__ import annotations
 
 import json
+import os
 import time
 from dataclasses import replace
 
@@ -215,3 +216,30 @@ def test_queries_per_suggestion(remote):
 def test_a_non_http_url_is_refused():
     with pytest.raises(EndpointError, match="not an http"):
         open_endpoint("ftp://example.org/sparql")
+
+
+def test_the_detected_profile_is_kept_for_the_next_open(oxigraph_server, demo_workspace, tmp_path):
+    first = open_endpoint(
+        oxigraph_server, languages=("en",), use_disk_cache=True, cache_folder=tmp_path
+    )
+    kept = list(tmp_path.glob("endpoint-profile-*.toml"))
+    assert len(kept) == 1
+    # The kept profile is what the next open uses; an edit to it shows that it was read.
+    edited = kept[0].read_text(encoding="utf-8").replace(
+        f'"{demo_workspace.profile.work_classes[0]}"', '"https://example.org/NotAClass"', 1
+    )
+    kept[0].write_text(edited, encoding="utf-8")
+    second = open_endpoint(
+        oxigraph_server, languages=("en",), use_disk_cache=True, cache_folder=tmp_path
+    )
+    assert first.profile == demo_workspace.profile
+    assert second.profile.work_classes[0] == "https://example.org/NotAClass"
+    # Older than a day: detected again (and equal to the embedded profile once more).
+    old = time.time() - 2 * 24 * 3600
+
+
+    os.utime(kept[0], (old, old))
+    third = open_endpoint(
+        oxigraph_server, languages=("en",), use_disk_cache=True, cache_folder=tmp_path
+    )
+    assert third.profile == demo_workspace.profile

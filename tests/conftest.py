@@ -6,7 +6,10 @@ the machine they run on.
 
 from __future__ import annotations
 
+import atexit
 import os
+import shutil
+import tempfile
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
@@ -21,6 +24,13 @@ TESTS = Path(__file__).resolve().parent
 FIXTURES = TESTS / "fixtures"
 REPO = TESTS.parent
 LANGUAGES = ("en",)
+
+# The cache of opened catalogues goes to a folder of this run, never the user's own cache
+# (removed at exit, after any copy still being written has finished).
+_CACHE_DIR = tempfile.mkdtemp(prefix="curator-test-cache-")
+os.environ["CURATOR_CACHE_DIR"] = _CACHE_DIR
+os.environ.pop("CURATOR_NO_CACHE", None)
+atexit.register(shutil.rmtree, _CACHE_DIR, True)
 
 
 def rdflib_graph(paths: list[Path]) -> rdflib.Graph:

@@ -248,6 +248,15 @@ class Catalogue:
         catalogue._triple_count = catalogue.sources[0].triples
         return catalogue
 
+    @classmethod
+    def from_store(
+        cls, store: ox.Store, sources: Sequence[SourceFile], triple_count: int
+    ) -> Catalogue:
+        """A catalogue over a store read earlier (a cached copy), whose size is known."""
+        catalogue = cls(store, sources)
+        catalogue._triple_count = triple_count
+        return catalogue
+
     def __len__(self) -> int:
         return self.triple_count
 

@@ -8,11 +8,14 @@ pins an earlier release.)
 from __future__ import annotations
 
 
-def run(paths: list[str] | None = None) -> int:
-    """Open the window on ``paths`` (the demo collection when None) and run until it closes."""
+def run(
+    paths: list[str] | None = None, *, endpoint: str | None = None, timeout: float = 30.0
+) -> int:
+    """Open the window on ``paths`` (the demo collection when None), or on a SPARQL endpoint's
+    query URL, and run until it closes."""
     from curator.gui.app import run as _run
 
-    return _run(paths)
+    return _run(paths, endpoint=endpoint, timeout=timeout)
 
 
 __all__ = ["run"]

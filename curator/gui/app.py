@@ -25,11 +25,13 @@ def application() -> QApplication:
     return app
 
 
-def run(paths: list[str] | None = None) -> int:
-    """Open the window on ``paths`` (the demo collection when None or empty); returns the exit
-    status of the event loop."""
+def run(
+    paths: list[str] | None = None, *, endpoint: str | None = None, timeout: float = 30.0
+) -> int:
+    """Open the window on ``paths`` (the demo collection when None or empty) or on a SPARQL
+    ``endpoint``'s query URL; returns the exit status of the event loop."""
     app = application()
     window = MainWindow()
     window.show()
-    window.start(paths or None)
+    window.start(paths or None, endpoint=endpoint, timeout=timeout)
     return app.exec()

@@ -15,10 +15,12 @@ from PySide6.QtGui import QAction, QKeySequence, QPalette
 from PySide6.QtWidgets import QHBoxLayout, QTextBrowser, QToolButton, QVBoxLayout, QWidget
 
 from curator.core.errors import CuratorError
+from curator.core.index import Index
 from curator.gui.delegates import mix
 from curator.gui.history import BrowseHistory
 from curator.gui.style import heading
 from curator.services.browse import (
+    DetailRow,
     DetailValue,
     EntityDetails,
     WorkDetails,
@@ -26,10 +28,44 @@ from curator.services.browse import (
     entity_details,
     work_details,
 )
+from curator.services.endpoint import EndpointWorkspace
 from curator.services.workspace import Workspace
 
 #: How many works sharing a value the page lists.
 WORKS_SHOWN = 60
+ENDPOINT_NOTE = (
+    "On an endpoint, Browse shows works; following a theme or a creator to every work that "
+    "has it would read the whole catalogue, so values are not links here. The number after a "
+    "value is how many works of the endpoint have it."
+)
+
+
+def endpoint_work_details(index: Index, iri: str, works_with: dict[tuple[str, str], int]) -> (
+    WorkDetails
+):
+    """A work's page from what an endpoint described of it: its creators and every theme and
+    link the index holds, with the endpoint-wide count of works sharing each."""
+    record = index.record(iri)
+    grouped: dict[str, list[DetailValue]] = {}
+    for creator in record.creators:
+        grouped.setdefault("Creator", []).append(DetailValue(index.label(creator), None, 0))
+    for column in index.direct[index.position[iri]].indices:
+        feature = index.features[column]
+        shared = works_with.get((feature.path, feature.value), 0)
+        label = index.label(feature.value) + (f" ({shared})" if shared > 1 else "")
+        grouped.setdefault(index.path_label(feature.path), []).append(DetailValue(label, None, 0))
+    rows = tuple(
+        DetailRow(name, "", tuple(sorted(values, key=lambda d: d.label.casefold())))
+        for name, values in sorted(grouped.items(), key=lambda kv: kv[0].casefold())
+    )
+    summary = WorkSummary(
+        iri=iri,
+        title=record.label,
+        creators=", ".join(index.label(c) for c in record.creators[:2]),
+        year=record.year,
+        kind=index.label(record.kinds[0]) if record.kinds else "",
+    )
+    return WorkDetails(summary, rows)
 
 
 @dataclass(frozen=True)
@@ -49,7 +85,7 @@ class BrowsePanel(QWidget):
     def __init__(self, parent: QWidget | None = None, *, in_tab: bool = False) -> None:
         """``in_tab``: no heading of its own (the tab carries the name)."""
         super().__init__(parent)
-        self._workspace: Workspace | None = None
+        self._workspace: Workspace | EndpointWorkspace | None = None
         self.history = BrowseHistory()
         self._links: list[Link] = []
 
@@ -94,7 +130,7 @@ class BrowsePanel(QWidget):
 
     # ----- navigation ------------------------------------------------------------------
 
-    def set_workspace(self, workspace: Workspace | None) -> None:
+    def set_workspace(self, workspace: Workspace | EndpointWorkspace | None) -> None:
         self._workspace = workspace
         self.history.clear()
         self._render()
@@ -152,6 +188,9 @@ class BrowsePanel(QWidget):
                 "to see every work that shares it.</p>"
             )
             return
+        if isinstance(workspace, EndpointWorkspace):
+            self.page.setHtml(self._endpoint_page(workspace, iri))
+            return
         try:
             if iri in workspace.index.position:
                 self.page.setHtml(self._work_page(work_details(workspace, iri)))
@@ -159,6 +198,18 @@ class BrowsePanel(QWidget):
                 self.page.setHtml(self._entity_page(entity_details(workspace, iri)))
         except CuratorError as exc:
             self.page.setHtml(f"<p>{html.escape(str(exc))}</p>")
+
+    def _endpoint_page(self, workspace: EndpointWorkspace, iri: str) -> str:
+        """A work as the latest suggestion described it, else asked of the endpoint."""
+        index = workspace.index
+        try:
+            if index is None or iri not in index.position:
+                _record, index = workspace.details(iri)
+        except CuratorError as exc:
+            return f"<p>{html.escape(str(exc))}</p><p>{html.escape(ENDPOINT_NOTE)}</p>"
+        details = endpoint_work_details(index, iri, workspace.frequencies.works_with)
+        note = f"<p style='color:{self._quiet()}'>{html.escape(ENDPOINT_NOTE)}</p>"
+        return self._work_page(details) + note
 
     def _actions(self, iri: str) -> str:
         return (

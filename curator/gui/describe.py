@@ -7,9 +7,12 @@ and can be built in a worker thread, where Qt objects must not be touched.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Protocol
 
-from curator.core.index import WorkRecord
+from curator.core.index import Index, WorkRecord
 from curator.core.suggest import Suggestion
+from curator.services.browse import WorkSummary
+from curator.services.endpoint import EndpointWorkspace, profile_view
 from curator.services.workspace import Workspace
 
 #: How many creators a byline names before it stops.
@@ -59,9 +62,23 @@ class CatalogueChoices:
     years: tuple[int, int] | None  # earliest and latest year, None if no work has one
 
 
-def byline(workspace: Workspace, record: WorkRecord) -> str:
+class Indexed(Protocol):
+    """A catalogue as this module reads it: an embedded workspace, or an endpoint workspace
+    whose index is that of its latest suggestion (None before the first)."""
+
+    @property
+    def index(self) -> Index | None: ...
+
+
+def byline(workspace: Indexed, record: WorkRecord) -> str:
     """Creator · year · kind, leaving out what the catalogue does not say."""
-    label = workspace.index.label
+    assert workspace.index is not None
+    return byline_in(workspace.index, record)
+
+
+def byline_in(index: Index, record: WorkRecord) -> str:
+    """:func:`byline` with the labels of ``index``."""
+    label = index.label
     creators = ", ".join(label(c) for c in record.creators[:CREATORS_SHOWN])
     if len(record.creators) > CREATORS_SHOWN:
         creators += " and others"
@@ -73,15 +90,39 @@ def byline(workspace: Workspace, record: WorkRecord) -> str:
     return " · ".join(p for p in parts if p)
 
 
-def work_line(workspace: Workspace | None, iri: str, fallback: str = "") -> WorkLine:
+def work_line(workspace: Indexed | None, iri: str, fallback: str = "") -> WorkLine:
     """The two lines for ``iri``; a work this catalogue lacks keeps its saved label."""
-    if workspace is not None and iri in workspace.index.position:
-        record = workspace.index.record(iri)
-        return WorkLine(iri, record.label, byline(workspace, record))
+    index = workspace.index if workspace is not None else None
+    if index is not None and iri in index.position:
+        record = index.record(iri)
+        return WorkLine(iri, record.label, byline_in(index, record))
     return WorkLine(iri, fallback or iri, "not in the open catalogue")
 
 
-def candidate_row(workspace: Workspace, suggestion: Suggestion) -> CandidateRow:
+def lines_of(index: Index | None, iris: list[str]) -> dict[str, WorkLine]:
+    """The two lines of each of ``iris`` that ``index`` describes (for remembering what an
+    endpoint said about the works of a list)."""
+    if index is None:
+        return {}
+    return {
+        iri: WorkLine(iri, index.record(iri).label, byline_in(index, index.record(iri)))
+        for iri in iris
+        if iri in index.position
+    }
+
+
+def summary_in(index: Index, record: WorkRecord) -> WorkSummary:
+    """A search result's line, labelled by the small index the endpoint search built."""
+    return WorkSummary(
+        iri=record.iri,
+        title=record.label,
+        creators=", ".join(index.label(c) for c in record.creators[:CREATORS_SHOWN]),
+        year=record.year,
+        kind=index.label(record.kinds[0]) if record.kinds else "",
+    )
+
+
+def candidate_row(workspace: Indexed, suggestion: Suggestion) -> CandidateRow:
     record = suggestion.record
     tags = tuple(Tag(t.label, t.property_label, t.broader) for t in suggestion.shared_themes)
     return CandidateRow(
@@ -102,3 +143,19 @@ def catalogue_choices(workspace: Workspace) -> CatalogueChoices:
     languages = tuple(sorted({lang for r in records for lang in r.languages}))
     years = [r.year for r in records if r.year is not None]
     return CatalogueChoices(kinds, languages, (min(years), max(years)) if years else None)
+
+
+def endpoint_choices(workspace: EndpointWorkspace) -> CatalogueChoices:
+    """The kinds an endpoint holds, labelled (a few queries: run it off the GUI thread).
+
+    Languages and years would take a scan of every work, so the controls offer all of them.
+    """
+    counts = workspace.class_counts()
+    labels = profile_view(workspace).index
+    kinds = tuple(
+        sorted(
+            ((c, labels.label(c)) for c in workspace.profile.work_classes if counts.get(c)),
+            key=lambda kv: kv[1].casefold(),
+        )
+    )
+    return CatalogueChoices(kinds, (), None)

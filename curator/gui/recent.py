@@ -1,4 +1,5 @@
-"""Recently opened or saved lists, remembered in QSettings (newest first, existing files only)."""
+"""Recently opened or saved lists (existing files only) and endpoints, remembered in QSettings,
+newest first."""
 
 from __future__ import annotations
 
@@ -31,3 +32,16 @@ def remember(path: Path) -> None:
 
 def forget_all() -> None:
     QSettings().remove(KEY)
+
+
+ENDPOINTS_KEY = "recent/endpoints"
+
+
+def recent_endpoints() -> list[str]:
+    """Endpoint URLs opened before, newest first (kept even when one is down for now)."""
+    return _as_list(QSettings().value(ENDPOINTS_KEY))
+
+
+def remember_endpoint(url: str) -> None:
+    urls = [url, *(u for u in recent_endpoints() if u != url)]
+    QSettings().setValue(ENDPOINTS_KEY, urls[:KEEP])

@@ -28,6 +28,8 @@ Search = Callable[[str, int], list[WorkSummary]]
 
 #: How many matches the popup offers.
 SEARCH_LIMIT = 12
+#: Typing waits this long before searching (in the open catalogue's own index).
+SEARCH_DELAY_MS = 30
 
 
 class StartingTitlesPanel(QWidget):
@@ -91,16 +93,18 @@ class StartingTitlesPanel(QWidget):
 
         self._debounce = QTimer(self)
         self._debounce.setSingleShot(True)
-        self._debounce.setInterval(30)
+        self._debounce.setInterval(SEARCH_DELAY_MS)
         self._debounce.timeout.connect(self._run_search)
         self.field.textEdited.connect(lambda _t: self._debounce.start())
         self.field.returnPressed.connect(self._enter)
         model.modelReset.connect(self._update_hint)
         self._update_hint()
 
-    def set_search(self, search: Search | None) -> None:
-        """Search this catalogue from now on (None while none is open)."""
+    def set_search(self, search: Search | None, *, delay_ms: int = SEARCH_DELAY_MS) -> None:
+        """Search this catalogue from now on (None while none is open), ``delay_ms`` after the
+        last key (longer for an endpoint, where each search is a few queries)."""
         self._search = search
+        self._debounce.setInterval(delay_ms)
         self.field.setEnabled(search is not None)
         self.results.set_results([])
 

@@ -9,7 +9,7 @@ from __future__ import annotations
 import itertools
 import re
 import time
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -36,13 +36,20 @@ from curator.gui.balance_panel import NO_CATALOGUE, BalancePanel
 from curator.gui.browse_panel import BrowsePanel
 from curator.gui.candidates_panel import CandidatesPanel
 from curator.gui.delegates import scaled_font
-from curator.gui.describe import WorkLine, catalogue_choices, work_line
+from curator.gui.describe import (
+    CatalogueChoices,
+    WorkLine,
+    catalogue_choices,
+    summary_in,
+    work_line,
+)
 from curator.gui.editor import SessionEditor
+from curator.gui.endpoint_dialog import EndpointDialog, check_endpoint_url
 from curator.gui.export_dialog import ExportDialog
 from curator.gui.import_dialog import ImportDialog, plan_import
 from curator.gui.list_panel import ListPanel
 from curator.gui.models import CandidateModel, EntryModel, SeedModel
-from curator.gui.recent import recent_lists, remember
+from curator.gui.recent import recent_lists, remember, remember_endpoint
 from curator.gui.seeds_panel import StartingTitlesPanel
 from curator.gui.status import LoadStatus
 from curator.gui.targets_dialog import TargetsDialog
@@ -50,15 +57,18 @@ from curator.gui.workers import (
     BalanceAnswer,
     BalanceRunner,
     CatalogueLoader,
+    EndpointOpened,
+    Opened,
     SuggestionAnswer,
     SuggestionRunner,
     TaskRunner,
 )
-from curator.services.browse import search_works
+from curator.services.browse import WorkSummary, search_works
+from curator.services.endpoint import EndpointWorkspace
 from curator.services.publishing import LoadedList, from_session, load_list, publication_for
 from curator.services.sessions import (
+    catalogue_for_list,
     clear_recovery,
-    entry_for_work,
     entry_from,
     read_recovery,
     targets_of,
@@ -83,6 +93,17 @@ _REFRESHING = {"seeds", "entry-inserted", "entry-removed", "dismissed", "setting
 _REBALANCING = _REFRESHING - {"dismissed"}
 #: Notes of the suggester shown on their own quiet line rather than in the explanation area.
 GAPS_NOTE = "Favouring works that fill"
+#: Typing waits this long before asking an endpoint for titles (each search is a few queries).
+ENDPOINT_SEARCH_DELAY_MS = 250
+NO_IMPORT_ON_ENDPOINT = (
+    "Importing a list matches every title against the whole catalogue, which an endpoint is "
+    "not read for; open the catalogue's files to import."
+)
+
+
+def is_endpoint_url(text: str) -> bool:
+    """Whether a saved catalogue source is an endpoint's URL rather than a file path."""
+    return text.startswith(("http://", "https://")) and check_endpoint_url(text) is None
 
 KEYS_HELP = """\
 <table cellpadding='2'>
@@ -118,8 +139,14 @@ class MainWindow(QMainWindow):
         self.setObjectName("curator-main-window")
         self.languages = tuple(languages) if languages else None
         self.session = Session()
-        self.workspace: Workspace | None = None
+        self.workspace: Opened | None = None
+        #: The files opened (() = the demo), or a one-item tuple holding the endpoint's URL.
         self.catalogue_paths: tuple[str, ...] = ()
+        #: On an endpoint: what it said about works met so far (searches, suggestions), so the
+        #: list and starting titles keep their bylines between suggestions.
+        self._lines: dict[str, WorkLine] = {}
+        self._missing: set[str] = set()
+        self._opening_endpoint = False
         self.document: Path | None = None
         self.last_refresh_seconds: float | None = None
         self.last_compute_seconds: float | None = None
@@ -166,6 +193,7 @@ class MainWindow(QMainWindow):
         self.targets_dialog: TargetsDialog | None = None
         self.export_dialog: ExportDialog | None = None
         self.import_dialog: ImportDialog | None = None
+        self.endpoint_dialog: EndpointDialog | None = None
         self._importing: tuple[Path, Workspace] | None = None
 
         self._build_actions()
@@ -250,6 +278,12 @@ class MainWindow(QMainWindow):
             None,
             "Open every RDF file in a folder",
         )
+        self.endpoint_action = self._action(
+            "Open an &endpoint…",
+            self.open_endpoint_dialog,
+            None,
+            "Use a SPARQL endpoint as the catalogue (give its query URL)",
+        )
         self.demo_action = self._action(
             "Open the &demo collection",
             lambda: self.open_catalogue([]),
@@ -316,7 +350,13 @@ class MainWindow(QMainWindow):
         file_menu.addActions([self.import_action, self.export_action])
         file_menu.addSeparator()
         file_menu.addActions(
-            [self.catalogue_action, self.folder_action, self.demo_action, self.stop_action]
+            [
+                self.catalogue_action,
+                self.folder_action,
+                self.endpoint_action,
+                self.demo_action,
+                self.stop_action,
+            ]
         )
         file_menu.addSeparator()
         file_menu.addAction(self.quit_action)
@@ -406,16 +446,30 @@ class MainWindow(QMainWindow):
 
     # ----- the session -------------------------------------------------------------------
 
+    @property
+    def endpoint_mode(self) -> bool:
+        return isinstance(self.workspace, EndpointWorkspace)
+
     def _describe(self, iri: str, fallback: str) -> WorkLine:
-        return work_line(self.workspace, iri, fallback)
+        if not self.endpoint_mode:
+            return work_line(self.workspace, iri, fallback)
+        if iri in self._lines:
+            return self._lines[iri]
+        line = work_line(self.workspace, iri, fallback)
+        if iri in self._missing:
+            return WorkLine(iri, line.title, "not at this endpoint")
+        if line.byline == "not in the open catalogue":  # not met yet: the saved title will do
+            return WorkLine(iri, line.title, "")
+        return line
 
     def _entry_for(self, iri: str) -> ListEntry:
         """An entry for ``iri``: with the suggestion's rationale when it was a candidate."""
         row = self.candidate_model.row_for(iri)
         if row is not None:
             return entry_from(row.suggestion)
-        if self.workspace is not None and iri in self.workspace.index.position:
-            return entry_for_work(self.workspace, iri)
+        index = self.workspace.index if self.workspace is not None else None
+        if index is not None and iri in index.position:
+            return ListEntry(iri=iri, label=index.record(iri).label)
         return ListEntry(iri=iri, label=self._describe(iri, iri).title)
 
     def _on_session(self, event: SessionEvent) -> None:
@@ -500,6 +554,13 @@ class MainWindow(QMainWindow):
         self.runner.request(self.workspace, self.session)
 
     def _show_answer(self, answer: SuggestionAnswer) -> None:
+        if answer.lines is not None:
+            missing = set(answer.suggestions.missing) if answer.suggestions else self._missing
+            if answer.lines.items() - self._lines.items() or missing != self._missing:
+                self._lines.update(answer.lines)
+                self._missing = missing
+                self.seed_model.refresh_lines()
+                self.entry_model.refresh_lines()
         self.candidate_model.set_rows(answer.rows)
         count = len(answer.rows)
         self.candidates_panel.set_status(f"{count} candidate{'s' if count != 1 else ''}")
@@ -508,9 +569,10 @@ class MainWindow(QMainWindow):
             notes = list(answer.suggestions.result.notes) if answer.suggestions.result else []
             missing = len(answer.suggestions.missing)
             if missing:
+                where = "at this endpoint" if self.endpoint_mode else "in the open catalogue"
                 notes.append(
                     f"{missing} work{'s' if missing != 1 else ''} of this list "
-                    f"{'are' if missing != 1 else 'is'} not in the open catalogue; "
+                    f"{'are' if missing != 1 else 'is'} not {where}; "
                     "kept on the list, left out of the suggestions."
                 )
             gaps = [n for n in notes if n.startswith(GAPS_NOTE)]
@@ -597,7 +659,13 @@ class MainWindow(QMainWindow):
     # ----- import and export -----------------------------------------------------------------
 
     def _update_actions(self) -> None:
-        self.import_action.setEnabled(self.workspace is not None)
+        importable = self.workspace is not None and not self.endpoint_mode
+        self.import_action.setEnabled(importable)
+        tip = NO_IMPORT_ON_ENDPOINT if self.endpoint_mode else (
+            "Add the works of a list made elsewhere (CSV, or one title a line)"
+        )
+        self.import_action.setToolTip(tip)
+        self.import_action.setStatusTip(tip)
         self.export_action.setEnabled(self.workspace is not None and bool(self.session.entries))
 
     def export_list(self) -> ExportDialog | None:
@@ -610,9 +678,13 @@ class MainWindow(QMainWindow):
         except TargetsError as exc:
             targets = None
             notice = f"Exported without targets: {exc}"
-        publication = publication_for(
-            self.workspace, from_session(self.workspace, self.session), targets
-        )
+        try:
+            # On an endpoint, the list's works are described for the export (a few queries).
+            catalogue: Any = catalogue_for_list(self.workspace, self.session)
+        except CuratorError as exc:
+            QMessageBox.warning(self, "The list could not be exported", str(exc))
+            return None
+        publication = publication_for(catalogue, from_session(catalogue, self.session), targets)
         dialog = ExportDialog(
             publication,
             targets,
@@ -635,7 +707,7 @@ class MainWindow(QMainWindow):
     def import_list(self, path: Path) -> bool:
         """Read and match ``path`` in the background; the import dialog follows."""
         workspace = self.workspace
-        if workspace is None or self.importer.busy:
+        if not isinstance(workspace, Workspace) or self.importer.busy:
             return False
         self._importing = (Path(path), workspace)
         self.statusBar().showMessage(f"Reading {Path(path).name}…")
@@ -671,7 +743,33 @@ class MainWindow(QMainWindow):
         if self.loader.busy:
             self.statusBar().showMessage("A catalogue is loading already; wait or press Esc.", 5000)
             return False
+        self._opening_endpoint = False
         return self.loader.start([str(p) for p in paths], self.languages)
+
+    def open_endpoint(self, url: str, timeout: float = 30.0) -> bool:
+        """Connect to a SPARQL endpoint (its query URL) in the background and use it as the
+        catalogue once it has answered; until then the open catalogue stays."""
+        problem = check_endpoint_url(url)
+        if problem is not None:
+            QMessageBox.warning(self, "The endpoint could not be opened", problem)
+            return False
+        if self.loader.busy:
+            self.statusBar().showMessage("A catalogue is loading already; wait or press Esc.", 5000)
+            return False
+        self._opening_endpoint = True
+        return self.loader.start([], self.languages, endpoint=url.strip(), timeout=timeout)
+
+    def open_endpoint_dialog(self) -> EndpointDialog:
+        """Ask for an endpoint's URL and timeout (window-modal, not blocking)."""
+        if self.endpoint_dialog is not None and self.endpoint_dialog.isVisible():
+            self.endpoint_dialog.raise_()
+            return self.endpoint_dialog
+        dialog = EndpointDialog(self)
+        if self.endpoint_mode:
+            dialog.set_url(self.catalogue_paths[0])
+        dialog.chosen.connect(self.open_endpoint)
+        self._open_dialog(dialog, "endpoint_dialog")
+        return dialog
 
     def open_catalogue_dialog(self) -> None:
         files, _ = QFileDialog.getOpenFileNames(self, "Open catalogue files", "", CATALOGUE_FILTER)
@@ -687,45 +785,74 @@ class MainWindow(QMainWindow):
         self.load_status.cancelling()
         self.loader.cancel()
 
+    def _opening_actions(self) -> tuple[QAction, ...]:
+        return (self.catalogue_action, self.folder_action, self.endpoint_action, self.demo_action)
+
     def _load_started(self) -> None:
-        self.load_status.begin("Opening the catalogue…")
+        self.load_status.begin(
+            "Asking the endpoint…" if self._opening_endpoint else "Opening the catalogue…"
+        )
         self.stop_action.setEnabled(True)
-        self.catalogue_action.setEnabled(False)
-        self.folder_action.setEnabled(False)
-        self.demo_action.setEnabled(False)
+        for action in self._opening_actions():
+            action.setEnabled(False)
 
     def _load_finished(self) -> None:
         self.load_status.end()
         self.stop_action.setEnabled(False)
-        for action in (self.catalogue_action, self.folder_action, self.demo_action):
+        for action in self._opening_actions():
             action.setEnabled(True)
 
-    def _loaded(self, workspace: Workspace, paths: tuple[str, ...]) -> None:
-        self.set_workspace(workspace, paths)
+    def _loaded(self, opened: Workspace | EndpointOpened, paths: tuple[str, ...]) -> None:
+        if isinstance(opened, EndpointOpened):
+            remember_endpoint(opened.workspace.url)
+            self.set_workspace(opened.workspace, paths, opened.choices)
+        else:
+            self.set_workspace(opened, paths)
 
     def _load_failed(self, message: str) -> None:
-        kept = (
-            "The catalogue that was open before is still open."
-            if self.workspace is not None
-            else "No catalogue is open; choose another with File ▸ Open catalogue."
-        )
-        QMessageBox.warning(self, "The catalogue could not be opened", f"{message}\n\n{kept}")
+        if self.workspace is None:
+            kept = "No catalogue is open; choose another with File ▸ Open catalogue."
+        elif self.endpoint_mode:
+            kept = f"The endpoint that was open before ({self.catalogue_paths[0]}) is still open."
+        else:
+            kept = "The catalogue that was open before is still open."
+        what = "endpoint" if self._opening_endpoint else "catalogue"
+        QMessageBox.warning(self, f"The {what} could not be opened", f"{message}\n\n{kept}")
 
     def _load_cancelled(self) -> None:
         self.statusBar().showMessage("Loading stopped; nothing was changed.", 5000)
 
-    def set_workspace(self, workspace: Workspace, paths: Sequence[str] = ()) -> None:
-        """Show and suggest from ``workspace`` from now on (``paths`` as opened; () = demo)."""
+    def set_workspace(
+        self,
+        workspace: Opened,
+        paths: Sequence[str] = (),
+        choices: CatalogueChoices | None = None,
+    ) -> None:
+        """Show and suggest from ``workspace`` from now on (``paths`` as opened; () = demo; for
+        an endpoint, its URL, with the ``choices`` its controls offer)."""
         self.runner.invalidate()
         self.workspace = workspace
         self.catalogue_paths = tuple(str(p) for p in paths)
-        self.seeds_panel.set_search(lambda text, limit: search_works(workspace, text, limit))
-        self.controls.set_choices(catalogue_choices(workspace))
+        self._lines, self._missing = {}, set()
+        if isinstance(workspace, EndpointWorkspace):
+            self.catalogue_paths = (workspace.url,)
+            self.seeds_panel.set_search(
+                self._endpoint_search(workspace), delay_ms=ENDPOINT_SEARCH_DELAY_MS
+            )
+            self.controls.set_choices(choices or CatalogueChoices((), (), None))
+            self.summary.setText(f"SPARQL endpoint: {workspace.summary_text()}")
+            self.summary.setToolTip(
+                f"Searches and suggestions ask {workspace.url}; each suggestion reads only the "
+                "works near the starting titles."
+            )
+        else:
+            self.seeds_panel.set_search(lambda text, limit: search_works(workspace, text, limit))
+            self.controls.set_choices(catalogue_choices(workspace))
+            self.summary.setText(workspace.summary().text())
+            self.summary.setToolTip("\n".join(str(s.path) for s in workspace.sources))
         self.seed_model.refresh_lines()
         self.entry_model.refresh_lines()
         self.browse_panel.set_workspace(workspace)
-        self.summary.setText(workspace.summary().text())
-        self.summary.setToolTip("\n".join(str(s.path) for s in workspace.sources))
         self.candidate_model.set_rows([])
         self.candidates_panel.set_message("")
         self.balance_runner.invalidate()
@@ -733,6 +860,37 @@ class MainWindow(QMainWindow):
         self.schedule_refresh()
         self.schedule_balance()
         self.catalogue_ready.emit()
+
+    def _endpoint_search(
+        self, workspace: EndpointWorkspace
+    ) -> Callable[[str, int], list[WorkSummary]]:
+        """Title search through the endpoint; what it finds is remembered for the bylines, and
+        a failure is said on the status bar rather than raised into the typing."""
+
+        def search(text: str, limit: int) -> list[WorkSummary]:
+            try:
+                found, index = workspace.search_labelled(text, limit)
+            except CuratorError as exc:
+                self.statusBar().showMessage(f"The endpoint could not be searched: {exc}", 8000)
+                return []
+            if index is None:
+                return []
+            summaries = [summary_in(index, record) for _match, record in found]
+            for summary in summaries:
+                self._lines.setdefault(
+                    summary.iri,
+                    WorkLine(
+                        summary.iri,
+                        summary.title,
+                        " · ".join(
+                            p for p in (summary.creators, str(summary.year or ""), summary.kind)
+                            if p
+                        ),
+                    ),
+                )
+            return summaries
+
+        return search
 
     # ----- files -----------------------------------------------------------------------------
 
@@ -782,7 +940,9 @@ class MainWindow(QMainWindow):
         self._update_title()
         wanted = tuple(loaded.catalogue)
         if wanted and wanted != self.catalogue_paths:
-            if all(Path(p).exists() for p in wanted):
+            if len(wanted) == 1 and is_endpoint_url(wanted[0]):
+                self.open_endpoint(wanted[0])
+            elif all(Path(p).exists() for p in wanted):
                 self.open_catalogue(wanted)
             else:
                 self.statusBar().showMessage(
@@ -839,10 +999,28 @@ class MainWindow(QMainWindow):
 
     # ----- starting and stopping -------------------------------------------------------------
 
-    def start(self, paths: Sequence[str] | None = None) -> None:
-        """Offer back unsaved work from a crash, then open the catalogue."""
+    def start(
+        self,
+        paths: Sequence[str] | None = None,
+        *,
+        endpoint: str | None = None,
+        timeout: float = 30.0,
+    ) -> None:
+        """Offer back unsaved work from a crash, then open the catalogue (or ``endpoint``)."""
         recovered = self.offer_recovery()
         chosen = list(paths or [])
+        if (
+            endpoint is None
+            and not chosen
+            and recovered is not None
+            and len(recovered.catalogue) == 1
+            and is_endpoint_url(recovered.catalogue[0])
+        ):
+            endpoint = recovered.catalogue[0]
+        if endpoint is not None:
+            if not self.open_endpoint(endpoint, timeout):
+                self.open_catalogue([])  # a bad URL: say so, and open the demo meanwhile
+            return
         if (
             not chosen
             and recovered is not None
@@ -887,7 +1065,12 @@ class MainWindow(QMainWindow):
         self._save_geometry()
         self._refresh_timer.stop()
         self._balance_timer.stop()
-        for dialog in (self.export_dialog, self.import_dialog, self.targets_dialog):
+        for dialog in (
+            self.export_dialog,
+            self.import_dialog,
+            self.targets_dialog,
+            self.endpoint_dialog,
+        ):
             if dialog is not None:
                 dialog.reject()
         self.loader.stop()

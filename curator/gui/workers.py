@@ -14,6 +14,7 @@ import time
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from pathlib import Path
+from typing import cast
 
 from PySide6.QtCore import QObject, Qt, QThread, Signal, Slot
 
@@ -21,9 +22,20 @@ from curator.core.errors import Cancelled, CuratorError
 from curator.core.progress import CancelToken, Progress
 from curator.core.session import Session
 from curator.gui.balance import BalanceReport, ChartStyle, compute_balance
-from curator.gui.describe import CandidateRow, candidate_row
-from curator.services.sessions import SessionSuggestions, suggest_for_session
+from curator.gui.describe import (
+    CandidateRow,
+    CatalogueChoices,
+    WorkLine,
+    candidate_row,
+    endpoint_choices,
+    lines_of,
+)
+from curator.services.endpoint import EndpointWorkspace, open_endpoint
+from curator.services.sessions import SessionSuggestions, catalogue_for_list, suggest_for_session
 from curator.services.workspace import Workspace, open_catalogue
+
+#: What the window can have open: catalogue files, or a SPARQL endpoint.
+Opened = Workspace | EndpointWorkspace
 
 log = logging.getLogger(__name__)
 
@@ -40,6 +52,17 @@ def snapshot(session: Session) -> Session:
 class LoadRequest:
     paths: tuple[str, ...]  # empty: the demo collection
     languages: tuple[str, ...] | None = None
+    endpoint: str | None = None  # a SPARQL endpoint's query URL instead of the paths
+    timeout: float = 30.0  # longest wait for one answer of the endpoint
+
+
+@dataclass(frozen=True)
+class EndpointOpened:
+    """An endpoint ready for the window, with what its controls offer (asked in the worker:
+    it takes queries)."""
+
+    workspace: EndpointWorkspace
+    choices: CatalogueChoices
 
 
 def _warm_up(workspace: Workspace) -> None:
@@ -66,12 +89,25 @@ class _LoadJob(QObject):
     @Slot()
     def run(self) -> None:
         progress = Progress(callback=self.progressed.emit, token=self._token)
+        request = self._request
+        opened: Workspace | EndpointOpened
         try:
-            workspace = open_catalogue(
-                [Path(p) for p in self._request.paths] or None,
-                languages=self._request.languages,
-                progress=progress,
-            )
+            if request.endpoint is not None:
+                remote = open_endpoint(
+                    request.endpoint,
+                    languages=request.languages,
+                    timeout=request.timeout,
+                    progress=progress,
+                )
+                progress.check()
+                opened = EndpointOpened(remote, endpoint_choices(remote))
+                progress.check()
+            else:
+                opened = open_catalogue(
+                    [Path(p) for p in request.paths] or None,
+                    languages=request.languages,
+                    progress=progress,
+                )
         except Cancelled:
             self.cancelled.emit()
         except CuratorError as exc:
@@ -80,8 +116,10 @@ class _LoadJob(QObject):
             log.exception("opening a catalogue failed")
             self.failed.emit(f"curator could not open it because of an internal error ({exc}).")
         else:
-            _warm_up(workspace)
-            self.loaded.emit(workspace, self._request.paths)
+            if isinstance(opened, Workspace):
+                _warm_up(opened)
+            where = (request.endpoint,) if request.endpoint is not None else request.paths
+            self.loaded.emit(opened, where)
         finally:
             self.done.emit()
 
@@ -91,7 +129,7 @@ class CatalogueLoader(QObject):
 
     started = Signal()
     progressed = Signal(str, float)
-    loaded = Signal(object, tuple)  # Workspace, the paths asked for
+    loaded = Signal(object, tuple)  # Workspace or EndpointOpened, the paths or URL asked for
     failed = Signal(str)
     cancelled = Signal()
     finished = Signal()
@@ -106,11 +144,24 @@ class CatalogueLoader(QObject):
     def busy(self) -> bool:
         return self._thread is not None
 
-    def start(self, paths: Sequence[str], languages: Sequence[str] | None = None) -> bool:
-        """Begin loading; False if a load is already running (cancel it first)."""
+    def start(
+        self,
+        paths: Sequence[str],
+        languages: Sequence[str] | None = None,
+        *,
+        endpoint: str | None = None,
+        timeout: float = 30.0,
+    ) -> bool:
+        """Begin loading ``paths``, or connecting to ``endpoint`` (a query URL); False if a
+        load is already running (cancel it first)."""
         if self.busy:
             return False
-        request = LoadRequest(tuple(str(p) for p in paths), tuple(languages) if languages else None)
+        request = LoadRequest(
+            tuple(str(p) for p in paths),
+            tuple(languages) if languages else None,
+            endpoint,
+            timeout,
+        )
         self._token = CancelToken()
         thread = QThread()
         thread.setObjectName("catalogue-loader")
@@ -157,6 +208,21 @@ class SuggestionAnswer:
     rows: tuple[CandidateRow, ...]
     error: str | None
     seconds: float
+    #: On an endpoint: what it said about the session's works (the window remembers them).
+    lines: dict[str, WorkLine] | None = None
+
+
+class _StaleToken(CancelToken):
+    """Cancelled as soon as a newer request is waiting, so a slow endpoint question is given
+    up rather than answered for nobody."""
+
+    def __init__(self, stale: Stale) -> None:
+        super().__init__()
+        self._stale = stale
+
+    @property
+    def cancelled(self) -> bool:
+        return self._stale()
 
 
 @dataclass(frozen=True)
@@ -238,28 +304,35 @@ class SuggestionRunner(NewestOnlyRunner):
     def __init__(self, parent: QObject | None = None) -> None:
         super().__init__("suggestions", parent)
 
-    def request(self, workspace: Workspace, session: Session) -> int:
+    def request(self, workspace: Opened, session: Session) -> int:
         """Ask for suggestions for a snapshot of ``session``; returns the request's number."""
         return self._ask(workspace, snapshot(session))
 
     def work(self, generation: int, stale: Stale, *args: object) -> SuggestionAnswer:
         workspace, session = args
-        assert isinstance(workspace, Workspace) and isinstance(session, Session)
+        assert isinstance(workspace, Opened) and isinstance(session, Session)
         started = time.perf_counter()
         found: SessionSuggestions | None = None
         rows: tuple[CandidateRow, ...] = ()
         error: str | None = None
+        lines: dict[str, WorkLine] | None = None
         try:
-            found = suggest_for_session(workspace, session, CANDIDATE_LIMIT)
+            progress = Progress(token=_StaleToken(stale))
+            found = suggest_for_session(workspace, session, CANDIDATE_LIMIT, progress)
             suggestions = found.result.suggestions if found.result else ()
             rows = tuple(candidate_row(workspace, s) for s in suggestions)
+            if isinstance(workspace, EndpointWorkspace):
+                iris = [*session.seeds, *session.entry_iris, *session.dismissed]
+                lines = lines_of(workspace.index, iris)
+        except Cancelled:
+            error = "Stopped: a newer question was asked."  # stale: never shown
         except CuratorError as exc:
             error = str(exc)
         except Exception as exc:
             log.exception("suggesting failed")
             error = f"Internal error while suggesting: {exc}"
         seconds = time.perf_counter() - started
-        return SuggestionAnswer(generation, found, rows, error, seconds)
+        return SuggestionAnswer(generation, found, rows, error, seconds, lines)
 
 
 class BalanceRunner(NewestOnlyRunner):
@@ -273,16 +346,19 @@ class BalanceRunner(NewestOnlyRunner):
     def __init__(self, parent: QObject | None = None) -> None:
         super().__init__("balance", parent)
 
-    def request(self, workspace: Workspace, session: Session, style: ChartStyle | None) -> int:
+    def request(self, workspace: Opened, session: Session, style: ChartStyle | None) -> int:
         """Audit a snapshot of ``session``; draw charts in ``style`` (None: no charts)."""
         return self._ask(workspace, snapshot(session), style)
 
     def work(self, generation: int, stale: Stale, *args: object) -> BalanceAnswer:
         workspace, session, style = args
-        assert isinstance(workspace, Workspace) and isinstance(session, Session)
+        assert isinstance(workspace, Opened) and isinstance(session, Session)
         assert style is None or isinstance(style, ChartStyle)
         try:
-            report = compute_balance(workspace, session, style, stale)
+            # On an endpoint the list's own works are described for the audit (it reads
+            # nothing else of the catalogue).
+            catalogue = cast(Workspace, catalogue_for_list(workspace, session))
+            report = compute_balance(catalogue, session, style, stale)
         except CuratorError as exc:
             return BalanceAnswer(generation, None, str(exc))
         except Exception as exc:

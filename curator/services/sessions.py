@@ -8,12 +8,19 @@ import os
 import time
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from curator.core.files import TEMP_SUFFIX, user_folder
+from curator.core.index import Index
+from curator.core.progress import Progress
 from curator.core.session import ListEntry, ListSettings, Session, SessionError
 from curator.core.suggest import Suggestion, SuggestionResult, SuggestSettings
 from curator.core.targets import Targets
+from curator.services.suggestions import SuggestRequest
 from curator.services.workspace import Workspace
+
+if TYPE_CHECKING:
+    from curator.services.endpoint import EndpointWorkspace
 
 
 def targets_of(list_settings: ListSettings) -> Targets | None:
@@ -49,13 +56,22 @@ class SessionSuggestions:
 
 
 def suggest_for_session(
-    workspace: Workspace, session: Session, limit: int = 20
+    workspace: Workspace | EndpointWorkspace,
+    session: Session,
+    limit: int = 20,
+    progress: Progress | None = None,
 ) -> SessionSuggestions:
     """Suggestions for the session's seeds, list and dismissals in this catalogue.
 
+    ``progress`` is checked on an endpoint only (embedded suggestions take milliseconds).
+
     Raises:
         SettingsError: the session's settings are out of range.
+        EndpointError: the endpoint failed.
+        Cancelled: cancelled through ``progress``.
     """
+    if not isinstance(workspace, Workspace):
+        return _suggest_on_endpoint(workspace, session, limit, progress)
     position = workspace.index.position
     missing = tuple(
         iri
@@ -72,6 +88,50 @@ def suggest_for_session(
         dismissed=[position[i] for i in session.dismissed if i in position],
     )
     return SessionSuggestions(result, missing)
+
+
+def _suggest_on_endpoint(
+    workspace: EndpointWorkspace, session: Session, limit: int, progress: Progress | None
+) -> SessionSuggestions:
+    """As :func:`suggest_for_session`, through the endpoint; works of the list that the
+    endpoint lacks are left out and reported, as in embedded mode."""
+    iris = [*session.seeds, *session.entry_iris, *session.dismissed]
+    present = workspace.works_among(iris)
+    missing = tuple(iri for iri in iris if iri not in present)
+    seeds = tuple(i for i in session.seeds if i in present)
+    if not seeds:
+        return SessionSuggestions(None, missing)
+    request = SuggestRequest(
+        seeds=seeds,
+        settings=settings_for(session.settings, limit),
+        list_items=tuple(i for i in session.entry_iris if i in present),
+        dismissed=tuple(i for i in session.dismissed if i in present),
+    )
+    return SessionSuggestions(workspace.suggest(request, progress), missing)
+
+
+@dataclass(frozen=True)
+class ListCatalogue:
+    """The works of one list as an endpoint describes them: the ``index`` that audits and
+    exports read, without the whole catalogue."""
+
+    index: Index
+
+
+def catalogue_for_list(
+    workspace: Workspace | EndpointWorkspace, session: Session
+) -> Workspace | ListCatalogue:
+    """What to audit or export ``session`` against: the open catalogue itself, or (on an
+    endpoint) an index of the list's entries and seeds fetched for the purpose.
+
+    Raises:
+        EndpointError: the endpoint failed.
+    """
+    if isinstance(workspace, Workspace):
+        return workspace
+    iris = list(dict.fromkeys([*session.entry_iris, *session.seeds]))
+    present = workspace.works_among(iris)
+    return ListCatalogue(workspace.describe_works([i for i in iris if i in present]))
 
 
 def entry_from(suggestion: Suggestion) -> ListEntry:

@@ -43,12 +43,11 @@ ENDPOINT_NOTE = (
 def endpoint_work_details(index: Index, iri: str, works_with: dict[tuple[str, str], int]) -> (
     WorkDetails
 ):
-    """A work's page from what an endpoint described of it: its creators and every theme and
-    link the index holds, with the endpoint-wide count of works sharing each."""
+    """A work's page from what an endpoint described of it: every theme and link the index
+    holds (creators among them, under their own property), with the endpoint-wide count of
+    works sharing each."""
     record = index.record(iri)
     grouped: dict[str, list[DetailValue]] = {}
-    for creator in record.creators:
-        grouped.setdefault("Creator", []).append(DetailValue(index.label(creator), None, 0))
     for column in index.direct[index.position[iri]].indices:
         feature = index.features[column]
         shared = works_with.get((feature.path, feature.value), 0)

@@ -98,7 +98,14 @@ class EndpointDialog(QDialog):
         layout.addWidget(self.error)
         layout.addWidget(note)
         layout.addWidget(self.buttons)
-        line.textEdited.connect(lambda _t: self.error.setVisible(False))
+        line.textEdited.connect(lambda _t: self._show_error(""))
+        # Wide enough for a URL, so the wrapped lines below it keep their height.
+        self.setMinimumWidth(self.fontMetrics().averageCharWidth() * 72)
+
+    def _show_error(self, text: str) -> None:
+        self.error.setText(text)
+        self.error.setVisible(bool(text))
+        self.adjustSize()  # a wrapped message needs room; Qt does not grow the dialog itself
 
     def set_url(self, url: str) -> None:
         self.url.setEditText(url)
@@ -107,8 +114,7 @@ class EndpointDialog(QDialog):
         """Close only on a usable URL; otherwise say what is wrong and keep what was typed."""
         problem = check_endpoint_url(self.url.currentText())
         if problem is not None:
-            self.error.setText(problem)
-            self.error.setVisible(True)
+            self._show_error(problem)
             self.url.setFocus()
             return
         url = self.url.currentText().strip()

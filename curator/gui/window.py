@@ -95,6 +95,10 @@ _REBALANCING = _REFRESHING - {"dismissed"}
 GAPS_NOTE = "Favouring works that fill"
 #: Typing waits this long before asking an endpoint for titles (each search is a few queries).
 ENDPOINT_SEARCH_DELAY_MS = 250
+NO_LANGUAGES_ON_ENDPOINT = (
+    "Offering the languages would mean reading every work of the endpoint; on an endpoint "
+    "candidates come in all languages."
+)
 NO_IMPORT_ON_ENDPOINT = (
     "Importing a list matches every title against the whole catalogue, which an endpoint is "
     "not read for; open the catalogue's files to import."
@@ -163,6 +167,7 @@ class MainWindow(QMainWindow):
         self.seeds_panel = StartingTitlesPanel(self.seed_model)
         self.candidates_panel = CandidatesPanel(self.candidate_model)
         self.controls = self.candidates_panel.controls
+        self._language_tip = self.controls.language.toolTip()
         self.list_panel = ListPanel(self.entry_model)
         self.browse_panel = BrowsePanel(in_tab=True)
         self.balance_panel = BalancePanel()
@@ -840,6 +845,8 @@ class MainWindow(QMainWindow):
                 self._endpoint_search(workspace), delay_ms=ENDPOINT_SEARCH_DELAY_MS
             )
             self.controls.set_choices(choices or CatalogueChoices((), (), None))
+            self.controls.language.setEnabled(False)
+            self.controls.language.setToolTip(NO_LANGUAGES_ON_ENDPOINT)
             self.summary.setText(f"SPARQL endpoint: {workspace.summary_text()}")
             self.summary.setToolTip(
                 f"Searches and suggestions ask {workspace.url}; each suggestion reads only the "
@@ -848,6 +855,8 @@ class MainWindow(QMainWindow):
         else:
             self.seeds_panel.set_search(lambda text, limit: search_works(workspace, text, limit))
             self.controls.set_choices(catalogue_choices(workspace))
+            self.controls.language.setEnabled(True)
+            self.controls.language.setToolTip(self._language_tip)
             self.summary.setText(workspace.summary().text())
             self.summary.setToolTip("\n".join(str(s.path) for s in workspace.sources))
         self.seed_model.refresh_lines()

@@ -6,6 +6,7 @@ service) the embedded mode's top picks on the same files.
 
 from __future__ import annotations
 
+import importlib.util
 import json
 from pathlib import Path
 from typing import Any
@@ -23,7 +24,22 @@ from curator.gui.window import MainWindow
 from curator.services.endpoint import EndpointWorkspace, open_endpoint
 from curator.services.sessions import suggest_for_session
 from curator.services.workspace import Workspace
-from tests.services.conftest import free_port, oxigraph_server  # noqa: F401  (the fixture)
+
+
+def _server_module() -> Any:
+    """tests/services/conftest.py, loaded by its path: the server fixture lives there, and the
+    tests folder is not a package on every way of running pytest."""
+    path = Path(__file__).resolve().parents[1] / "services" / "conftest.py"
+    spec = importlib.util.spec_from_file_location("curator_endpoint_server", path)
+    assert spec is not None and spec.loader is not None
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    return module
+
+
+_server = _server_module()
+free_port = _server.free_port
+oxigraph_server = _server.oxigraph_server
 
 OPEN_TIMEOUT_MS = 15000
 
@@ -53,7 +69,7 @@ def seed_by_search(qtbot: Any, window: MainWindow, typed: str, title: str) -> st
 
 
 @pytest.fixture
-def endpoint_window(qtbot: Any, window: MainWindow, oxigraph_server: str) -> MainWindow:  # noqa: F811
+def endpoint_window(qtbot: Any, window: MainWindow, oxigraph_server: str) -> MainWindow:
     open_endpoint_window(qtbot, window, oxigraph_server)
     return window
 
@@ -73,7 +89,7 @@ def test_the_dialog_refuses_a_url_that_is_not_http(qtbot: Any, window: MainWindo
 def test_open_search_suggest_as_the_service_does(
     qtbot: Any,
     endpoint_window: MainWindow,
-    oxigraph_server: str,  # noqa: F811
+    oxigraph_server: str,
     demo_workspace: Workspace,
 ) -> None:
     win = endpoint_window
@@ -85,6 +101,7 @@ def test_open_search_suggest_as_the_service_does(
     # kinds come from the endpoint, labelled as embedded mode labels them
     kinds = [win.controls.kind.itemText(i) for i in range(1, win.controls.kind.count())]
     assert kinds == sorted(["Audiobook", "Film", "Graphic novel", "Novel", "Story collection"])
+    assert not win.controls.language.isEnabled() and "every work" in win.controls.language.toolTip()
 
     seed = seed_by_search(qtbot, win, "mirror of gull", MIRROR)
     assert seed == iri_of(demo_workspace, MIRROR)
@@ -108,7 +125,7 @@ def test_open_search_suggest_as_the_service_does(
 def test_add_save_and_reopen_from_the_endpoint(
     qtbot: Any,
     endpoint_window: MainWindow,
-    oxigraph_server: str,  # noqa: F811
+    oxigraph_server: str,
     demo_workspace: Workspace,
     tmp_path: Path,
 ) -> None:
@@ -171,7 +188,7 @@ def test_a_dead_endpoint_leaves_the_catalogue_open(
 
 
 def test_cancel_while_connecting(
-    qtbot: Any, window: MainWindow, oxigraph_server: str, demo_workspace: Workspace  # noqa: F811
+    qtbot: Any, window: MainWindow, oxigraph_server: str, demo_workspace: Workspace
 ) -> None:
     with qtbot.waitSignal(window.loader.finished, timeout=OPEN_TIMEOUT_MS):
         open_through_dialog(qtbot, window, oxigraph_server)
@@ -182,7 +199,7 @@ def test_cancel_while_connecting(
     assert "nothing was changed" in window.statusBar().currentMessage()
 
 
-def test_works_among_asks_once_for_many(oxigraph_server: str, demo_workspace: Workspace) -> None:  # noqa: F811
+def test_works_among_asks_once_for_many(oxigraph_server: str, demo_workspace: Workspace) -> None:
     service = open_endpoint(oxigraph_server, languages=("en",))
     works = [r.iri for r in demo_workspace.index.records[:150]]
     index = demo_workspace.index

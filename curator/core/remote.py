@@ -125,18 +125,23 @@ def _number(value: float) -> str:
     return repr(float(value))
 
 
-def _works_block(classes: Sequence[str]) -> str:
-    return f"{{ SELECT DISTINCT ?w WHERE {{ VALUES ?wc {{ {_iris(classes)} }} ?w a ?wc }} }}"
+def _works_block(classes: Sequence[str], limit: int | None = None) -> str:
+    """The works as a subquery; with ``limit``, only the first ``limit`` the endpoint gives."""
+    cut = f" LIMIT {int(limit)}" if limit else ""
+    return f"{{ SELECT DISTINCT ?w WHERE {{ VALUES ?wc {{ {_iris(classes)} }} ?w a ?wc }}{cut} }}"
 
 
 def _is_work(var: str, classes: Sequence[str]) -> str:
     return f"EXISTS {{ VALUES ?wc {{ {_iris(classes)} }} {var} a ?wc }}"
 
 
-def _sources(classes: Sequence[str], instance_links: Sequence[str]) -> list[str]:
+def _sources(
+    classes: Sequence[str], instance_links: Sequence[str], limit: int | None = None
+) -> list[str]:
     """Patterns binding a work ``?w`` and a subject ``?s`` whose statements count for it: the
-    work itself, and its instances through each instance link."""
-    works = _works_block(classes)
+    work itself, and its instances through each instance link (of the first ``limit`` works
+    only, when given)."""
+    works = _works_block(classes, limit)
     found = [f"{works} BIND(?w AS ?s)"]
     for link in instance_links:
         if link.startswith("^"):
@@ -146,11 +151,14 @@ def _sources(classes: Sequence[str], instance_links: Sequence[str]) -> list[str]
     return found
 
 
-def _all_rows(classes: Sequence[str], instance_links: Sequence[str]) -> str:
-    """Every (work, path, object) the reader would read, as a subquery (paths as strings)."""
+def _all_rows(
+    classes: Sequence[str], instance_links: Sequence[str], limit: int | None = None
+) -> str:
+    """Every (work, path, object) the reader would read, as a subquery (paths as strings), of
+    the first ``limit`` works when given."""
     skipped = [RDF.type, *(link.lstrip("^") for link in instance_links)]
     parts = []
-    for number, source in enumerate(_sources(classes, instance_links)):
+    for number, source in enumerate(_sources(classes, instance_links, limit)):
         skip = f"FILTER(?p NOT IN ({_iris(skipped, ', ')}))" if number else ""
         parts.append(
             f"{{ {source} ?s ?p ?o . FILTER(!isBlank(?o)) {skip} BIND(STR(?p) AS ?path) }}"
@@ -267,14 +275,25 @@ class _PathCounts:
     values: int = 0
 
 
+#: Works whose statements the profile is detected from. Which properties are labels, themes,
+#: links or facets shows in a few thousand works as well as in all of them, and each aggregate
+#: query then costs the same on a catalogue of any size.
+PROFILE_SAMPLE = 5000
+
+
 def detect_profile_remote(
     endpoint: SparqlEndpoint,
     *,
     languages: Sequence[str] = ("en",),
     progress: Progress | None = None,
+    sample: int | None = PROFILE_SAMPLE,
 ) -> Profile:
     """The profile :func:`~curator.core.profile.detect_profile` would find, from about a dozen
     aggregate queries rather than a read of every work.
+
+    The statements are those of the first ``sample`` works the endpoint gives (all works when
+    ``sample`` is None or the catalogue is smaller): a property used by only a handful of works,
+    or whose values are shared only across the whole catalogue, may be missed on a larger one.
 
     Literal samples (used to tell a year from other text) are the endpoint's first 200, not the
     store's, which can only matter for a property that is a year in some 80 % of works.
@@ -289,7 +308,7 @@ def detect_profile_remote(
     progress.report("Finding the works", 0.0)
     work_classes, notes = detect_work_classes(catalogue, reader=reader)  # type: ignore[arg-type]
     instance_links = detect_instance_links(catalogue, reader=reader)  # type: ignore[arg-type]
-    rows = _all_rows(work_classes, instance_links)
+    rows = _all_rows(work_classes, instance_links, sample)
     progress.report("Counting statements", 0.2)
     counts: dict[str, dict[str, int]] = defaultdict(dict)
     for path, uses, literals, to_works in _rows(

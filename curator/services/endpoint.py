@@ -320,18 +320,27 @@ def _checked(iri: str) -> str:
         raise SeedError(f"{iri!r} is not a usable IRI.") from None
 
 
+#: Longest wait for one of the aggregate queries made when opening an endpoint.
+SURVEY_TIMEOUT = 600.0
+
+
 def open_endpoint(
     url: str,
     *,
     languages: Sequence[str] | None = None,
     profile_path: Path | None = None,
     timeout: float = 30.0,
+    survey_timeout: float = SURVEY_TIMEOUT,
     candidates: int = DEFAULT_CANDIDATES,
     cache_folder: Path | None = None,
     use_disk_cache: bool = False,
     progress: Progress | None = None,
 ) -> EndpointWorkspace:
     """Connect to an endpoint: detect (or load) the profile, fetch the frequencies.
+
+    ``timeout`` bounds every request made while suggesting; the aggregate queries made once when
+    opening (profile, frequencies) each read a good part of the catalogue and get
+    ``survey_timeout`` (at least ``timeout``).
 
     With ``use_disk_cache`` the frequencies are kept as JSON in ``cache_folder`` (default: the
     user's cache folder, or ``CURATOR_CACHE_DIR``) for a day.
@@ -353,6 +362,7 @@ def open_endpoint(
             "/query), that the server is running, and that this machine may reach it."
         ) from None
     langs = tuple(languages) if languages else preferred_languages()
+    survey = SparqlEndpoint(replace(endpoint.settings, timeout=max(timeout, survey_timeout)))
     progress.report("Profiling the endpoint", 0.0)
     folder = None
     if use_disk_cache:
@@ -361,9 +371,9 @@ def open_endpoint(
         profile = Profile.load(profile_path)
         profile = replace(profile, languages=langs) if languages else profile
     else:
-        profile = _detected_profile(endpoint, langs, folder, progress.part(0, 0.5))
+        profile = _detected_profile(survey, langs, folder, progress.part(0, 0.5))
     frequencies = frequencies_for(
-        endpoint, profile, cache_folder=folder, progress=progress.part(0.5, 1.0)
+        survey, profile, cache_folder=folder, progress=progress.part(0.5, 1.0)
     )
     return EndpointWorkspace(endpoint, profile, frequencies, candidates=candidates)
 

@@ -9,6 +9,7 @@ import subprocess
 import time
 import urllib.parse
 import urllib.request
+from collections.abc import Callable
 from pathlib import Path
 
 import pytest
@@ -35,6 +36,12 @@ def triple_count(url: str) -> int:
     with urllib.request.urlopen(request, timeout=30) as answer:
         document = json.loads(answer.read())
     return int(document["results"]["bindings"][0]["n"]["value"])
+
+
+@pytest.fixture
+def server_triples() -> Callable[[str], int]:
+    """:func:`triple_count`, for tests (a conftest is not importable as a module)."""
+    return triple_count
 
 
 @pytest.fixture(scope="session")

@@ -23,7 +23,6 @@ from curator.core.similarity import document_frequency
 from curator.core.suggest import SuggestSettings
 from curator.services.endpoint import EndpointWorkspace, open_endpoint
 from curator.services.suggestions import SuggestRequest, suggest
-from tests.services.conftest import triple_count
 
 WORK = "https://hollinmere.example/work/"
 SHOWCASE = (
@@ -138,14 +137,14 @@ def test_shared_count_equals_the_group_by_oracle(remote, oxigraph_server, demo_w
     "title",
     ['The Mirror" } ; DROP ALL ; { "', "back\\slash\\", 'line\nbreak "}" ) }', "x'\"}>"],
 )
-def test_a_hostile_title_cannot_inject(remote, oxigraph_server, title):
-    before = triple_count(oxigraph_server)
+def test_a_hostile_title_cannot_inject(remote, oxigraph_server, server_triples, title):
+    before = server_triples(oxigraph_server)
     with pytest.raises(SeedError):  # not an EndpointError: the query stayed valid
         remote.resolve(title)
     with pytest.raises(SeedError):
         remote.suggest(SuggestRequest(seeds=(title,)))
     # the server's own count of its statements
-    assert triple_count(oxigraph_server) == before
+    assert server_triples(oxigraph_server) == before
 
 
 def test_titles_resolve_through_sparql(remote):

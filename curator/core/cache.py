@@ -49,14 +49,14 @@ from curator.core.index import Index
 from curator.core.profile import Profile
 
 #: Bumped whenever the pickled payload changes shape.
-INDEX_FORMAT = 2
+INDEX_FORMAT = 3
 DEFAULT_MAX_BYTES = 4 * 1024**3
 DEFAULT_MAX_ENTRIES = 6
 #: A ``.building-*`` folder this old belongs to a process that died while building.
 STALE_BUILD_SECONDS = 6 * 3600
 #: Statements copied into the disk store per call: small enough that the copy, which holds
 #: the interpreter lock, lets the window's thread in several times a second.
-COPY_BATCH = 50_000
+COPY_BATCH = 20_000
 NO_CACHE_ENV = "CURATOR_NO_CACHE"
 _CHUNK = 1 << 20
 #: The modules whose code decides what an index holds; a change to any of them is a new key.
@@ -385,13 +385,18 @@ def _lock(handle: IO[bytes], *, exclusive: bool) -> bool:
     return True
 
 
-def _write_payload(handle: IO[bytes], payload: CachedOpening) -> None:
-    """A header, then each of the index's declared fields as a pickle of its own.
+#: Items of a list or dict field per pickle (see :func:`_write_payload`).
+PIECE = 10_000
 
-    One pickle per field keeps the pickler's memo (an entry for every object written, tens of
-    megabytes for a large catalogue) small at any moment, which matters because this runs
-    while the catalogue's store is still in memory. Only declared fields are written, so a
-    table that explanations add to the index later is neither saved nor read half-built.
+
+def _write_payload(handle: IO[bytes], payload: CachedOpening) -> None:
+    """A header, then each of the index's declared fields, a large list or dict in pieces.
+
+    Each pickle has its own memo (an entry for every object written): in pieces it stays a few
+    megabytes where one pickle of 100,000 records would need tens, and this runs while the
+    catalogue's store is still in memory, in a thread whose allocations cannot reuse the
+    main thread's free memory. Only declared fields are written, so a table that explanations
+    add to the index later is neither saved nor read half-built.
     """
     index = payload.index
     names = [f.name for f in fields(Index)]
@@ -403,7 +408,30 @@ def _write_payload(handle: IO[bytes], payload: CachedOpening) -> None:
     }
     pickle.dump(header, handle, protocol=5)
     for name in names:
-        pickle.dump(getattr(index, name), handle, protocol=5)
+        value = getattr(index, name)
+        if isinstance(value, list | dict) and len(value) > PIECE:
+            items = value if isinstance(value, list) else list(value.items())
+            starts = range(0, len(items), PIECE)
+            pickle.dump((type(value).__name__, len(starts)), handle, protocol=5)
+            for start in starts:
+                pickle.dump(items[start : start + PIECE], handle, protocol=5)
+        else:
+            pickle.dump(("whole", 1), handle, protocol=5)
+            pickle.dump(value, handle, protocol=5)
+
+
+def _read_field(handle: IO[bytes]) -> object:
+    kind, pieces = pickle.load(handle)
+    if kind == "whole":
+        return pickle.load(handle)
+    items: list = []
+    for _ in range(pieces):
+        items.extend(pickle.load(handle))
+    if kind == "list":
+        return items
+    if kind == "dict":
+        return dict(items)
+    raise ValueError(f"unknown piece kind {kind!r}")
 
 
 def _read_payload(handle: IO[bytes]) -> CachedOpening:
@@ -413,7 +441,7 @@ def _read_payload(handle: IO[bytes]) -> CachedOpening:
     names = header["fields"]
     if names != [f.name for f in fields(Index)]:
         raise ValueError("the index has other fields now")
-    values = {name: pickle.load(handle) for name in names}
+    values = {name: _read_field(handle) for name in names}
     if handle.read(1):
         raise ValueError("trailing bytes")
     sources = tuple(header["sources"])
@@ -501,6 +529,9 @@ class CacheSaver:
         self._job = None
         building: Path | None = None
         try:
+            # Hand back what indexing freed (glibc keeps it) before this thread, with an arena
+            # of its own that cannot reuse it, asks for more.
+            _return_freed_memory()
             building = self.cache.new_entry()
             self.cache.write_index(building, payload)
             del payload
@@ -528,8 +559,9 @@ class CacheSaver:
 
 
 def _return_freed_memory() -> None:
-    """Hand the freed in-memory store back to the system: glibc keeps freed pages of a
-    long-lived process otherwise, and the window would go on looking a gigabyte larger."""
+    """Hand freed memory back to the system: glibc keeps the freed pages of a long-lived
+    process otherwise, and a window that let go of its in-memory store would go on looking a
+    gigabyte larger."""
     if not sys.platform.startswith("linux"):
         return
     gc.collect()

@@ -9,7 +9,7 @@ import textwrap
 from collections.abc import Sequence
 from pathlib import Path
 
-from curator.cli import publish_commands
+from curator.cli import cache_commands, publish_commands
 from curator.core.errors import CuratorError
 from curator.core.suggest import DEFAULT_LAMBDA, MODES, SuggestionResult, SuggestSettings
 from curator.services.endpoint import EndpointWorkspace, open_endpoint, profile_view
@@ -106,6 +106,7 @@ def build_parser() -> argparse.ArgumentParser:
     p.add_argument("--save", type=Path, metavar="FILE", help="write the profile as TOML")
 
     publish_commands.add_parsers(commands, _catalogue_options)
+    cache_commands.add_parsers(commands)
     o = commands.add_parser(
         "open", help="open the window on catalogue files or folders, or on an endpoint"
     )
@@ -276,6 +277,7 @@ def main(argv: Sequence[str] | None = None) -> int:
         "open": _run_open,
         "audit": lambda a: publish_commands.run_audit(_open_files(a), a),
         "export": lambda a: publish_commands.run_export(_open_files(a), a),
+        "cache": cache_commands.run,
     }
     try:
         return handlers[args.command](args)

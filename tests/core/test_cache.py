@@ -12,6 +12,7 @@ import time
 from pathlib import Path
 
 import pytest
+from conftest import FIXTURES, LANGUAGES, REPO, demo_files
 
 from curator.core.cache import CatalogueCache, source_key
 from curator.core.errors import Cancelled
@@ -20,7 +21,6 @@ from curator.core.suggest import SuggestSettings
 from curator.services.browse import entity_details, work_details
 from curator.services.suggestions import SuggestRequest, suggest
 from curator.services.workspace import Workspace, open_catalogue
-from tests.conftest import FIXTURES, LANGUAGES, REPO, demo_files
 
 
 @pytest.fixture()

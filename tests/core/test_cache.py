@@ -12,7 +12,6 @@ import time
 from pathlib import Path
 
 import pytest
-from conftest import FIXTURES, LANGUAGES, REPO, demo_files
 
 from curator.core.cache import CatalogueCache, source_key
 from curator.core.errors import Cancelled
@@ -20,7 +19,17 @@ from curator.core.progress import Progress
 from curator.core.suggest import SuggestSettings
 from curator.services.browse import entity_details, work_details
 from curator.services.suggestions import SuggestRequest, suggest
-from curator.services.workspace import Workspace, open_catalogue
+from curator.services.workspace import Workspace, demo_collection_path, open_catalogue
+
+# The same as tests/conftest.py (a conftest is not importable as a module on every run).
+TESTS = Path(__file__).resolve().parents[1]
+FIXTURES = TESTS / "fixtures"
+REPO = TESTS.parent
+LANGUAGES = ("en",)
+
+
+def demo_files() -> list[Path]:
+    return sorted(demo_collection_path().glob("*.ttl"))
 
 
 @pytest.fixture()

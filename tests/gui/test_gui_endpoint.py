@@ -1,4 +1,4 @@
-"""The window on a SPARQL endpoint: the Oxigraph server of tests/services/conftest.py holds the
+"""The window on a SPARQL endpoint: the Oxigraph server of tests/conftest.py holds the
 demo collection, and the window opens it through the endpoint dialog. Candidates must be the
 endpoint service's own suggestions, and (as tests/services/test_endpoint_mode.py shows for the
 service) the embedded mode's top picks on the same files.
@@ -6,7 +6,6 @@ service) the embedded mode's top picks on the same files.
 
 from __future__ import annotations
 
-import importlib.util
 import json
 from pathlib import Path
 from typing import Any
@@ -24,22 +23,6 @@ from curator.gui.window import MainWindow
 from curator.services.endpoint import EndpointWorkspace, open_endpoint
 from curator.services.sessions import suggest_for_session
 from curator.services.workspace import Workspace
-
-
-def _server_module() -> Any:
-    """tests/services/conftest.py, loaded by its path: the server fixture lives there, and the
-    tests folder is not a package on every way of running pytest."""
-    path = Path(__file__).resolve().parents[1] / "services" / "conftest.py"
-    spec = importlib.util.spec_from_file_location("curator_endpoint_server", path)
-    assert spec is not None and spec.loader is not None
-    module = importlib.util.module_from_spec(spec)
-    spec.loader.exec_module(module)
-    return module
-
-
-_server = _server_module()
-free_port = _server.free_port
-oxigraph_server = _server.oxigraph_server
 
 OPEN_TIMEOUT_MS = 15000
 
@@ -175,9 +158,9 @@ def test_browse_and_balance_work_through_the_endpoint(
 
 
 def test_a_dead_endpoint_leaves_the_catalogue_open(
-    qtbot: Any, window: MainWindow, dialogs: Any, demo_workspace: Workspace
+    qtbot: Any, window: MainWindow, dialogs: Any, demo_workspace: Workspace, unused_port: int
 ) -> None:
-    dead = f"http://127.0.0.1:{free_port()}/query"
+    dead = f"http://127.0.0.1:{unused_port}/query"
     with qtbot.waitSignal(window.loader.finished, timeout=OPEN_TIMEOUT_MS):
         open_through_dialog(qtbot, window, dead)
     assert window.workspace is demo_workspace and window.catalogue_paths == ()

@@ -1,4 +1,4 @@
-"""A SPARQL 1.1 endpoint as the catalogue: a real Oxigraph server (tests/services/conftest.py), and
+"""A SPARQL 1.1 endpoint as the catalogue: a real Oxigraph server (tests/conftest.py), and
 a misbehaving test server.
 
 The Oxigraph server (PyPI package ``oxigraph``) is a second SPARQL engine: endpoint mode must give

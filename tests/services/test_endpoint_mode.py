@@ -1,4 +1,4 @@
-"""Endpoint mode against a real server: the Oxigraph server (tests/services/conftest.py) is a
+"""Endpoint mode against a real server: the Oxigraph server (tests/conftest.py) is a
 second SPARQL engine holding the demo collection. The work is pushed into it (aggregates,
 candidate query, descriptions of a neighbourhood), and what comes back must match embedded
 mode, which reads the same files into pyoxigraph.

@@ -18,15 +18,12 @@ first, so no process ever sees half of one.
 from __future__ import annotations
 
 import contextlib
-import ctypes
-import gc
 import hashlib
 import itertools
 import json
 import os
 import pickle
 import shutil
-import sys
 import tempfile
 import threading
 import time
@@ -46,6 +43,7 @@ from curator import __version__
 from curator.core.catalogue import Catalogue, SourceFile
 from curator.core.files import user_folder
 from curator.core.index import Index
+from curator.core.memory import return_freed_memory
 from curator.core.profile import Profile
 
 #: Bumped whenever the pickled payload changes shape.
@@ -531,7 +529,7 @@ class CacheSaver:
         try:
             # Hand back what indexing freed (glibc keeps it) before this thread, with an arena
             # of its own that cannot reuse it, asks for more.
-            _return_freed_memory()
+            return_freed_memory(collect=True)
             building = self.cache.new_entry()
             self.cache.write_index(building, payload)
             del payload
@@ -555,18 +553,7 @@ class CacheSaver:
             return
         self.hold = hold
         catalogue.store = store  # readers in flight keep the store they started with
-        _return_freed_memory()
-
-
-def _return_freed_memory() -> None:
-    """Hand freed memory back to the system: glibc keeps the freed pages of a long-lived
-    process otherwise, and a window that let go of its in-memory store would go on looking a
-    gigabyte larger."""
-    if not sys.platform.startswith("linux"):
-        return
-    gc.collect()
-    with contextlib.suppress(OSError, AttributeError):
-        ctypes.CDLL("libc.so.6").malloc_trim(0)
+        return_freed_memory(collect=True)
 
 
 def _folder_size(folder: Path) -> int:

@@ -19,6 +19,7 @@ import scipy.sparse as sp
 
 from curator.core.catalogue import Catalogue
 from curator.core.labels import LabelCandidate, best_label, fold, iri_tail
+from curator.core.memory import return_freed_memory
 from curator.core.profile import PROPERTY_WORDS, Profile, ThemeProperty
 from curator.core.progress import Progress, silent
 from curator.core.reading import (
@@ -175,6 +176,9 @@ def build_index(
     labels = _best_labels(candidates, profile.languages)
     columns = statements.columns()
     records = _records(columns, profile, works, candidates, labels, types)
+    del candidates
+    reader.forget_labels()
+    return_freed_memory()
     progress.report("Building features", 0.7)
     features, raw, direct, weights = _feature_matrix(columns, profile, parents)
     if frequencies is None:
@@ -672,11 +676,18 @@ def _graph(
     target.append(np.array(extra_b, dtype=np.int64))
     strength.append(np.array(extra_w, dtype=np.float64))
     n = len(node)
-    matrix = sp.coo_matrix(
-        (np.concatenate(strength), (np.concatenate(source), np.concatenate(target))),
+    # Both directions of every edge in one go (the graph is undirected): converting sums the
+    # duplicates, as adding the matrix to its transpose would, without holding both.
+    ends_a = np.concatenate(source).astype(np.int32)
+    ends_b = np.concatenate(target).astype(np.int32)
+    weights = np.concatenate(strength)
+    del source, target, strength
+    symmetric = sp.coo_matrix(
+        (np.concatenate((weights, weights)), (np.concatenate((ends_a, ends_b)),
+                                              np.concatenate((ends_b, ends_a)))),
         shape=(n, n),
     ).tocsr()
-    symmetric = (matrix + matrix.T).tocsr()
+    del ends_a, ends_b, weights
     symmetric.sum_duplicates()
     names = [""] * n
     for key, i in node.items():

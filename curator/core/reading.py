@@ -593,6 +593,11 @@ class CatalogueReader:
 
     # ----- labels, links, hierarchy -------------------------------------------------------
 
+    def forget_labels(self) -> None:
+        """Drop the reader's copies of the labels read (every label of every node in every
+        language: a good part of what indexing holds at its peak) once they are used."""
+        self._labels.clear()
+
     def labels(
         self, label_properties: Sequence[str] = LABEL_PROPERTIES
     ) -> dict[str, list[LabelCandidate]]:

@@ -87,6 +87,7 @@ def measure(works: int, seeds: int, sparql_seeds: int, out: Path | None) -> dict
         figures["sparql_groupby_median_ms"] / figures["blend_median_ms"]
     )
     figures["top_theme_share"] = stats.top_theme_works / max(1, stats.works)
+    figures["top_heading_share"] = stats.top_heading_works / max(1, stats.works)
 
     # The cache of opened catalogues, in a folder of this run. Each open with the cache runs in
     # a fresh process of its own, so that its peak memory is its own: the first (ready, then

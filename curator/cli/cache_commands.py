@@ -37,6 +37,13 @@ def info_lines(cache: CatalogueCache) -> list[str]:
             f"  {entry.key[:12]}  {size_text(entry.size):>9}  last used {when(entry.last_used)}"
         )
         lines.append(f"      {entry.description or '(no description)'}")
+    surveys = cache.endpoint_files()
+    if surveys:
+        size = sum(f.stat().st_size for f in surveys)
+        lines.append(
+            f"  {len(surveys)} endpoint file{'s' if len(surveys) != 1 else ''} (detected profiles "
+            f"and theme frequencies, renewed after a day): {size_text(size)}"
+        )
     total = sum(e.size for e in entries)
     lines.append(
         f"Total: {len(entries)} of at most {cache.max_entries} entries, {size_text(total)} "
@@ -47,10 +54,13 @@ def info_lines(cache: CatalogueCache) -> list[str]:
 
 def clear_lines(cache: CatalogueCache) -> list[str]:
     count = len(cache.entries())
+    surveys = len(cache.endpoint_files())
     freed, kept = cache.clear()
     removed = count - len(kept)
     lines = [f"Removed {removed} saved catalogue{'s' if removed != 1 else ''} from "
-             f"{cache.folder}, freeing {size_text(freed)}."]
+             f"{cache.folder}"
+             + (f" and {surveys} endpoint file{'s' if surveys != 1 else ''}" if surveys else "")
+             + f", freeing {size_text(freed)}."]
     if kept:
         lines.append(
             f"Kept {len(kept)} in use by an open window ({size_text(sum(e.size for e in kept))}); "

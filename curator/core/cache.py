@@ -52,6 +52,9 @@ DEFAULT_MAX_BYTES = 4 * 1024**3
 DEFAULT_MAX_ENTRIES = 6
 #: A ``.building-*`` folder this old belongs to a process that died while building.
 STALE_BUILD_SECONDS = 6 * 3600
+#: Files of endpoint mode (remote.py, services/endpoint.py) start so; removed when a week old.
+ENDPOINT_FILE_PREFIX = "endpoint-"
+ENDPOINT_FILE_SECONDS = 7 * 24 * 3600
 #: Statements copied into the disk store per call: small enough that the copy, which holds
 #: the interpreter lock, lets the window's thread in several times a second.
 COPY_BATCH = 20_000
@@ -305,9 +308,19 @@ class CatalogueCache:
             if p.is_dir() and (p.name.startswith(".") or not (p / "meta.json").exists())
         ]
 
+    def endpoint_files(self) -> list[Path]:
+        """What endpoint mode keeps here: each endpoint's detected profile and frequencies
+        (small files, renewed after a day)."""
+        if not self.folder.is_dir():
+            return []
+        return sorted(
+            p for p in self.folder.iterdir()
+            if p.is_file() and p.name.startswith(ENDPOINT_FILE_PREFIX)
+        )
+
     def prune(self, keep: str | None = None) -> list[str]:
-        """Remove least recently used entries beyond the limits (never ``keep``), and builds
-        left behind by processes that died."""
+        """Remove least recently used entries beyond the limits (never ``keep``), builds
+        left behind by processes that died, and endpoint files not renewed for a week."""
         removed = []
         entries = self.entries()
         total = sum(e.size for e in entries)
@@ -327,6 +340,10 @@ class CatalogueCache:
                     now - stale.stat().st_mtime > STALE_BUILD_SECONDS
                 ):
                     shutil.rmtree(stale, ignore_errors=True)
+        for old in self.endpoint_files():
+            with contextlib.suppress(OSError):
+                if now - old.stat().st_mtime > ENDPOINT_FILE_SECONDS:
+                    old.unlink()
         return removed
 
     def clear(self) -> tuple[int, list[CacheEntry]]:
@@ -350,6 +367,11 @@ class CatalogueCache:
                     continue  # another process may be writing it right now
                 size = _folder_size(stale)
                 shutil.rmtree(stale, ignore_errors=True)
+                freed += size
+        for file in self.endpoint_files():
+            with contextlib.suppress(OSError):
+                size = file.stat().st_size
+                file.unlink()
                 freed += size
         return freed, kept
 

@@ -89,3 +89,28 @@ def test_clear_in_process_reports_what_was_kept(
     out = capsys.readouterr().out
     assert "Removed 0 saved catalogues" in out
     assert "Kept 1 in use by an open window" in out
+
+
+def test_endpoint_files_are_listed_cleared_and_pruned(tmp_path: Path, capsys) -> None:
+    folder = tmp_path / "cache"
+    folder.mkdir()
+    profile = folder / "endpoint-profile-0123.toml"
+    frequencies = folder / "endpoint-4567.json"
+    profile.write_text("work_classes = []\n", encoding="utf-8")
+    frequencies.write_text("{}", encoding="utf-8")
+    cache = CatalogueCache(folder)
+    assert cache.endpoint_files() == [frequencies, profile]
+    # A week unused: pruned; a day old: kept.
+    week = 8 * 24 * 3600
+    os.utime(profile, (profile.stat().st_atime - week, profile.stat().st_mtime - week))
+    cache.prune()
+    assert cache.endpoint_files() == [frequencies]
+    os.environ["CURATOR_CACHE_DIR"], saved = str(folder), os.environ["CURATOR_CACHE_DIR"]
+    try:
+        assert main(["cache", "info"]) == 0
+        assert "1 endpoint file " in capsys.readouterr().out
+        assert main(["cache", "clear"]) == 0
+        assert "and 1 endpoint file," in capsys.readouterr().out
+    finally:
+        os.environ["CURATOR_CACHE_DIR"] = saved
+    assert cache.endpoint_files() == []

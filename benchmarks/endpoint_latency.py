@@ -33,6 +33,8 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 from synthetic import BASE, write_synthetic
 
 ABOUT = "https://schema.org/about"
+#: Seeds whose top 20 is compared with embedded mode's.
+AGREEMENT_SEEDS = 8
 
 
 def oxigraph_binary() -> str:
@@ -115,7 +117,8 @@ def measure(works: int, seeds: int, sparql_seeds: int) -> dict[str, float]:
     """The endpoint figures of one catalogue size (seconds and milliseconds as named)."""
     from curator.core.suggest import SuggestSettings
     from curator.services.endpoint import open_endpoint
-    from curator.services.suggestions import SuggestRequest
+    from curator.services.suggestions import SuggestRequest, suggest
+    from curator.services.workspace import open_catalogue
 
     folder = Path(tempfile.mkdtemp(prefix="curator-endpoint-bench-"))
     try:
@@ -140,6 +143,20 @@ def measure(works: int, seeds: int, sparql_seeds: int) -> dict[str, float]:
             figures["endpoint_blend_p95_ms"] = percentile(times, 0.95) * 1000
             groupby = [groupby_over_http(url, iri) for iri in seed_iris[:sparql_seeds]]
             figures["endpoint_groupby_median_ms"] = statistics.median(groupby) * 1000
+            remote_top = [
+                [s.iri for s in workspace.suggest(SuggestRequest((iri,), settings)).suggestions]
+                for iri in seed_iris[:AGREEMENT_SEEDS]
+            ]
+        # How close endpoint mode comes to embedded mode on the same file: the share of the
+        # embedded top 20 that the endpoint's top 20 holds too.
+        del workspace
+        embedded = open_catalogue([data], languages=("en",), cache=False)
+        shares = []
+        for iri, remote in zip(seed_iris, remote_top, strict=False):
+            local = suggest(embedded, SuggestRequest((iri,), settings)).suggestions
+            shares.append(len({s.iri for s in local} & set(remote)) / max(1, len(local)))
+        figures["endpoint_top20_agreement_mean"] = statistics.mean(shares)
+        figures["endpoint_top20_agreement_min"] = min(shares)
         return figures
     finally:
         shutil.rmtree(folder, ignore_errors=True)

@@ -91,6 +91,7 @@ def endpoint_table(results: list[dict[str, float]]) -> list[str]:
         "open on endpoint s",
         "blend median / p95 ms",
         "SPARQL over HTTP median ms",
+        "top 20 shared with embedded mode, mean / least",
     ]
     lines = ["| " + " | ".join(head) + " |", "|" + "---|" * len(head)]
     for f in results:
@@ -100,6 +101,8 @@ def endpoint_table(results: list[dict[str, float]]) -> list[str]:
             _figure(f, "endpoint_open_s"),
             f"{_figure(f, 'endpoint_blend_median_ms')} / {_figure(f, 'endpoint_blend_p95_ms')}",
             _figure(f, "endpoint_groupby_median_ms"),
+            f"{_figure(f, 'endpoint_top20_agreement_mean', '{:.0%}')} / "
+            f"{_figure(f, 'endpoint_top20_agreement_min', '{:.0%}')}",
         ]
         lines.append("| " + " | ".join(cells) + " |")
     return lines

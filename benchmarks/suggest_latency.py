@@ -99,9 +99,10 @@ def measure(works: int, seeds: int, sparql_seeds: int, out: Path | None) -> dict
     import subprocess
 
     from curator.core.cache import CatalogueCache
+    from curator.core.memory import return_freed_memory
 
     del workspace, index
-    gc.collect()
+    return_freed_memory(collect=True)  # the children below need the room (7 GB at 1M works)
     cache = CatalogueCache(folder / "cache")
     child = (
         "import json, resource, sys, time; t = time.perf_counter(); "

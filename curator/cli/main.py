@@ -145,12 +145,38 @@ def _open_files(args: argparse.Namespace) -> Workspace:
             f"curator {args.command} reads catalogue files; --endpoint works with suggest and "
             "profile."
         )
-    return open_catalogue(
+    workspace = open_catalogue(
         args.catalogue or None,
         profile_path=args.profile,
         languages=args.languages,
         format_name=args.format_name,
     )
+    _OPENED.append(workspace)
+    return workspace
+
+
+#: Workspaces this command opened, whose copy for next time may still be being written.
+_OPENED: list[Workspace] = []
+
+
+def _finish_cache_copies() -> None:
+    """Say why the command has not ended yet when the copy of a newly opened catalogue is still
+    being written (the next open of the same files then takes a second), and wait for it."""
+    pending = [w for w in _OPENED if w.saver is not None and w.saver.running]
+    if pending:
+        sys.stderr.write(
+            "curator: keeping a copy of the catalogue so that it opens quickly next time "
+            "(Ctrl+C skips it)...\n"
+        )
+        sys.stderr.flush()
+    try:
+        for workspace in pending:
+            workspace.wait_for_cache()
+    except KeyboardInterrupt:
+        for workspace in pending:
+            if workspace.saver is not None:
+                workspace.saver.stop()
+    _OPENED.clear()
 
 
 def _run_suggest(args: argparse.Namespace) -> int:
@@ -280,7 +306,9 @@ def main(argv: Sequence[str] | None = None) -> int:
         "cache": cache_commands.run,
     }
     try:
-        return handlers[args.command](args)
+        status = handlers[args.command](args)
+        _finish_cache_copies()
+        return status
     except CuratorError as exc:
         sys.stderr.write(f"curator: {exc}\n")
         return EXIT_BAD_INPUT

@@ -2,7 +2,10 @@
 
 It is how a curator checks a suggestion ("which other works are set in Gullstane?") and finds
 more by hand. Pages are built from the browse service as HTML with numbered links, so IRIs never
-have to survive URL parsing; colours come from the palette when the page is built.
+have to survive URL parsing; colours come from the palette when the page is built. On an
+endpoint, a work no suggestion has described is asked for (``details_wanted``) and shown when
+the window hands the answer back (:meth:`BrowsePanel.show_details`), so the page never waits
+on the network.
 """
 
 from __future__ import annotations
@@ -33,6 +36,9 @@ from curator.services.workspace import Workspace
 
 #: How many works sharing a value the page lists.
 WORKS_SHOWN = 60
+#: How many works the endpoint described for Browse are kept for going back and forth.
+DESCRIBED_KEPT = 40
+ASKING = "Asking the endpoint about this work…"
 ENDPOINT_NOTE = (
     "On an endpoint, Browse shows works; following a theme or a creator to every work that "
     "has it would read the whole catalogue, so values are not links here. The number after a "
@@ -71,7 +77,7 @@ def endpoint_work_details(index: Index, iri: str, works_with: dict[tuple[str, st
 class Link:
     """What a numbered link in the page does: open a page, or add a work somewhere."""
 
-    action: str  # "open", "add", "seed"
+    action: str  # "open", "add", "seed", "retry" (ask the endpoint again)
     iri: str
 
 
@@ -80,6 +86,8 @@ class BrowsePanel(QWidget):
 
     add_requested = Signal(str)
     seed_requested = Signal(str)
+    #: On an endpoint: describe this work (answer with :meth:`show_details`).
+    details_wanted = Signal(str)
 
     def __init__(self, parent: QWidget | None = None, *, in_tab: bool = False) -> None:
         """``in_tab``: no heading of its own (the tab carries the name)."""
@@ -87,6 +95,11 @@ class BrowsePanel(QWidget):
         self._workspace: Workspace | EndpointWorkspace | None = None
         self.history = BrowseHistory()
         self._links: list[Link] = []
+        #: On an endpoint: works it described for this pane, the one being asked about, and
+        #: the last failure (shown once, with a link that asks again).
+        self._described: dict[str, Index] = {}
+        self._asking: str | None = None
+        self._failure: tuple[str, str] | None = None
 
         self.page = QTextBrowser()
         self.page.setOpenLinks(False)
@@ -132,7 +145,27 @@ class BrowsePanel(QWidget):
     def set_workspace(self, workspace: Workspace | EndpointWorkspace | None) -> None:
         self._workspace = workspace
         self.history.clear()
+        self._described, self._asking, self._failure = {}, None, None
         self._render()
+
+    @property
+    def asking(self) -> bool:
+        """The endpoint is being asked about the work on the page."""
+        return self._asking is not None
+
+    def show_details(self, iri: str, index: Index | None, error: str | None = None) -> None:
+        """The endpoint's description of ``iri`` (an index holding it), or why there is none."""
+        if iri != self._asking:
+            return
+        self._asking = None
+        if index is not None and iri in index.position:
+            self._described[iri] = index
+            while len(self._described) > DESCRIBED_KEPT:
+                del self._described[next(iter(self._described))]
+        else:
+            self._failure = (iri, error or f"<{iri}> is not a work of this catalogue.")
+        if self.history.current == iri:
+            self._render()
 
     def show_iri(self, iri: str) -> None:
         """Open ``iri`` (a work or any linked thing) as a new step in the trail."""
@@ -159,6 +192,8 @@ class BrowsePanel(QWidget):
             self.add_requested.emit(link.iri)
         elif link.action == "seed":
             self.seed_requested.emit(link.iri)
+        elif link.action == "retry":
+            self._render()
         else:
             self.show_iri(link.iri)
 
@@ -199,15 +234,27 @@ class BrowsePanel(QWidget):
             self.page.setHtml(f"<p>{html.escape(str(exc))}</p>")
 
     def _endpoint_page(self, workspace: EndpointWorkspace, iri: str) -> str:
-        """A work as the latest suggestion described it, else asked of the endpoint."""
-        index = workspace.index
-        try:
-            if index is None or iri not in index.position:
-                _record, index = workspace.details(iri)
-        except CuratorError as exc:
-            return f"<p>{html.escape(str(exc))}</p><p>{html.escape(ENDPOINT_NOTE)}</p>"
-        details = endpoint_work_details(index, iri, workspace.frequencies.works_with)
+        """A work as the latest suggestion described it, or as the endpoint described it for
+        this pane; otherwise the endpoint is asked (in the window's worker) and the page says
+        so until the answer comes."""
         note = f"<p style='color:{self._quiet()}'>{html.escape(ENDPOINT_NOTE)}</p>"
+        index = workspace.index
+        if index is None or iri not in index.position:
+            index = self._described.get(iri)
+        if index is None:
+            if self._failure is not None and self._failure[0] == iri:
+                message = self._failure[1]
+                self._failure = None
+                return (
+                    "<p>The endpoint could not describe this work:</p>"
+                    f"<p>{html.escape(message)}</p>"
+                    f"<p>{self._link('retry', iri, 'Ask again')}</p>"
+                )
+            if self._asking != iri:
+                self._asking = iri
+                self.details_wanted.emit(iri)
+            return f"<p style='color:{self._quiet()}'>{html.escape(ASKING)}</p>"
+        details = endpoint_work_details(index, iri, workspace.frequencies.works_with)
         return self._work_page(details) + note
 
     def _actions(self, iri: str) -> str:

@@ -1,4 +1,5 @@
-"""The status bar's loading strip: what is being read, how far, and a Cancel that works."""
+"""The status bar's progress strips (opening a catalogue; a suggestion on an endpoint): what is
+under way, how far, and a Cancel that works."""
 
 from __future__ import annotations
 
@@ -14,16 +15,22 @@ class LoadStatus(QWidget):
 
     cancel_requested = Signal()
 
-    def __init__(self, parent: QWidget | None = None) -> None:
+    def __init__(
+        self,
+        parent: QWidget | None = None,
+        *,
+        name: str = "Loading progress",
+        cancel_tip: str = "Stop loading; the catalogue open now stays open (Esc)",
+    ) -> None:
         super().__init__(parent)
         self.stage = QLabel()
         self.bar = QProgressBar()
         self.bar.setRange(0, STEPS)
         self.bar.setTextVisible(False)
         self.bar.setMaximumWidth(self.fontMetrics().averageCharWidth() * 24)
-        self.bar.setAccessibleName("Loading progress")
+        self.bar.setAccessibleName(name)
         self.cancel = QPushButton("Cancel")
-        self.cancel.setToolTip("Stop loading; the catalogue open now stays open (Esc)")
+        self.cancel.setToolTip(cancel_tip)
         self.cancel.clicked.connect(self.cancel_requested)
         layout = QHBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)

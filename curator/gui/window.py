@@ -9,7 +9,7 @@ from __future__ import annotations
 import itertools
 import re
 import time
-from collections.abc import Callable, Sequence
+from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
 
@@ -29,6 +29,7 @@ from PySide6.QtWidgets import (
 )
 
 from curator.core.errors import CuratorError
+from curator.core.index import Index
 from curator.core.session import ListEntry, ListSettings, Session, SessionEvent
 from curator.core.targets import TargetsError
 from curator.gui.autosave import DOCUMENT_KEY, Autosaver
@@ -40,7 +41,6 @@ from curator.gui.describe import (
     CatalogueChoices,
     WorkLine,
     catalogue_choices,
-    summary_in,
     work_line,
 )
 from curator.gui.editor import SessionEditor
@@ -50,20 +50,25 @@ from curator.gui.import_dialog import ImportDialog, plan_import
 from curator.gui.list_panel import ListPanel
 from curator.gui.models import CandidateModel, EntryModel, SeedModel
 from curator.gui.recent import recent_lists, remember, remember_endpoint
-from curator.gui.seeds_panel import StartingTitlesPanel
+from curator.gui.seeds_panel import SEARCH_LIMIT, StartingTitlesPanel
 from curator.gui.status import LoadStatus
 from curator.gui.targets_dialog import TargetsDialog
 from curator.gui.workers import (
+    SUGGESTION_STAGES,
+    AskAnswer,
+    AskRunner,
     BalanceAnswer,
     BalanceRunner,
     CatalogueLoader,
     EndpointOpened,
     Opened,
+    SearchFound,
     SuggestionAnswer,
     SuggestionRunner,
     TaskRunner,
+    search_endpoint,
 )
-from curator.services.browse import WorkSummary, search_works
+from curator.services.browse import search_works
 from curator.services.endpoint import EndpointWorkspace
 from curator.services.publishing import LoadedList, from_session, load_list, publication_for
 from curator.services.sessions import (
@@ -98,6 +103,10 @@ ENDPOINT_SEARCH_DELAY_MS = 250
 NO_LANGUAGES_ON_ENDPOINT = (
     "Offering the languages would mean reading every work of the endpoint; on an endpoint "
     "candidates come in all languages."
+)
+SUGGESTION_STOPPED = (
+    "Suggesting stopped. The candidates shown were suggested before your last change; change "
+    "the list or the settings to suggest again."
 )
 NO_IMPORT_ON_ENDPOINT = (
     "Importing a list matches every title against the whole catalogue, which an endpoint is "
@@ -176,11 +185,21 @@ class MainWindow(QMainWindow):
         self.summary = QLabel("No catalogue open")
         self.summary.setContentsMargins(self.fontMetrics().averageCharWidth(), 0, 0, 0)
         self.load_status = LoadStatus()
+        self.suggest_status = LoadStatus(
+            name="Suggestion progress",
+            cancel_tip="Stop this suggestion; the candidates shown now stay",
+        )
         self.statusBar().addWidget(self.summary, 1)
+        self.statusBar().addPermanentWidget(self.suggest_status)
         self.statusBar().addPermanentWidget(self.load_status)
 
         self.loader = CatalogueLoader(self)
         self.runner = SuggestionRunner(self)
+        #: On an endpoint: title searches, and Browse's descriptions of works.
+        self.searcher = AskRunner("endpoint search", self)
+        self.describer = AskRunner("endpoint browse", self)
+        self._searching = ""
+        self._browsing = ""
         self.balance_runner = BalanceRunner(self)
         self.importer = TaskRunner("reading the list", self)
         self.autosaver = Autosaver(self.session, self)
@@ -423,6 +442,12 @@ class MainWindow(QMainWindow):
         self.loader.finished.connect(self._load_finished)
         self.load_status.cancel_requested.connect(self.cancel_loading)
         self.runner.ready.connect(self._show_answer)
+        self.runner.progressed.connect(self.suggest_status.report)
+        self.suggest_status.cancel_requested.connect(self.cancel_suggestion)
+        self.seeds_panel.search_wanted.connect(self._search_endpoint)
+        self.searcher.ready.connect(self._search_answered)
+        self.browse_panel.details_wanted.connect(self._describe_for_browse)
+        self.describer.ready.connect(self._browse_answered)
         self.balance_runner.ready.connect(self._show_balance)
         self.importer.done.connect(self._list_read)
         self.importer.failed.connect(self._list_failed)
@@ -528,7 +553,7 @@ class MainWindow(QMainWindow):
         self.setWindowModified(self.is_modified())
 
     def _replace_session(self, other: Session, document: Path | None) -> None:
-        self.runner.invalidate()
+        self._forget_suggestion()
         self.balance_runner.invalidate()
         self.session.replace_with(other)
         self.undo_stack.clear()
@@ -547,7 +572,7 @@ class MainWindow(QMainWindow):
         if self.workspace is None:
             return
         if not self.session.seeds:
-            self.runner.invalidate()
+            self._forget_suggestion()
             self.candidate_model.set_rows([])
             self.candidates_panel.set_status("")
             self.candidates_panel.set_gaps_note("")
@@ -557,8 +582,28 @@ class MainWindow(QMainWindow):
             self._served(None)
             return
         self.runner.request(self.workspace, self.session)
+        if self.endpoint_mode and self.suggest_status.isHidden():
+            self.suggest_status.begin(SUGGESTION_STAGES[0])
+            self.candidates_panel.set_status("Suggesting…")
+
+    def _forget_suggestion(self) -> None:
+        """Drop the suggestion in flight (its answer would be for another list or catalogue)."""
+        self.runner.invalidate()
+        self.suggest_status.end()
+
+    def cancel_suggestion(self) -> None:
+        """Stop the suggestion under way; the candidates shown stay, and we say they are old."""
+        if self.suggest_status.isHidden():
+            return
+        self._forget_suggestion()
+        count = self.candidate_model.rowCount()
+        self.candidates_panel.set_status(f"Stopped; {count} from before")
+        self.candidates_panel.set_message(SUGGESTION_STOPPED)
+        self._changed_at = None
+        self.statusBar().showMessage("Suggesting stopped.", 5000)
 
     def _show_answer(self, answer: SuggestionAnswer) -> None:
+        self.suggest_status.end()
         if answer.lines is not None:
             missing = set(answer.suggestions.missing) if answer.suggestions else self._missing
             if answer.lines.items() - self._lines.items() or missing != self._missing:
@@ -835,15 +880,15 @@ class MainWindow(QMainWindow):
     ) -> None:
         """Show and suggest from ``workspace`` from now on (``paths`` as opened; () = demo; for
         an endpoint, its URL, with the ``choices`` its controls offer)."""
-        self.runner.invalidate()
+        self._forget_suggestion()
+        self.searcher.invalidate()
+        self.describer.invalidate()
         self.workspace = workspace
         self.catalogue_paths = tuple(str(p) for p in paths)
         self._lines, self._missing = {}, set()
         if isinstance(workspace, EndpointWorkspace):
             self.catalogue_paths = (workspace.url,)
-            self.seeds_panel.set_search(
-                self._endpoint_search(workspace), delay_ms=ENDPOINT_SEARCH_DELAY_MS
-            )
+            self.seeds_panel.set_asked_search(delay_ms=ENDPOINT_SEARCH_DELAY_MS)
             self.controls.set_choices(choices or CatalogueChoices((), (), None))
             self.controls.language.setEnabled(False)
             self.controls.language.setToolTip(NO_LANGUAGES_ON_ENDPOINT)
@@ -870,36 +915,39 @@ class MainWindow(QMainWindow):
         self.schedule_balance()
         self.catalogue_ready.emit()
 
-    def _endpoint_search(
-        self, workspace: EndpointWorkspace
-    ) -> Callable[[str, int], list[WorkSummary]]:
-        """Title search through the endpoint; what it finds is remembered for the bylines, and
-        a failure is said on the status bar rather than raised into the typing."""
+    def _search_endpoint(self, text: str) -> None:
+        """Search the endpoint's titles in the worker ("" drops the search under way)."""
+        workspace = self.workspace
+        self._searching = text
+        if not text or not isinstance(workspace, EndpointWorkspace):
+            self.searcher.invalidate()
+            return
+        self.searcher.request(
+            lambda progress: search_endpoint(workspace, text, SEARCH_LIMIT, progress)
+        )
 
-        def search(text: str, limit: int) -> list[WorkSummary]:
-            try:
-                found, index = workspace.search_labelled(text, limit)
-            except CuratorError as exc:
-                self.statusBar().showMessage(f"The endpoint could not be searched: {exc}", 8000)
-                return []
-            if index is None:
-                return []
-            summaries = [summary_in(index, record) for _match, record in found]
-            for summary in summaries:
-                self._lines.setdefault(
-                    summary.iri,
-                    WorkLine(
-                        summary.iri,
-                        summary.title,
-                        " · ".join(
-                            p for p in (summary.creators, str(summary.year or ""), summary.kind)
-                            if p
-                        ),
-                    ),
-                )
-            return summaries
+    def _search_answered(self, answer: AskAnswer) -> None:
+        """What the endpoint found is remembered for the bylines and offered in the popup; a
+        failure is said under the field rather than raised into the typing."""
+        if answer.error is not None or not isinstance(answer.value, SearchFound):
+            self.seeds_panel.show_search_failed(self._searching, answer.error or "no answer.")
+            return
+        found = answer.value
+        for iri, line in found.lines.items():
+            self._lines.setdefault(iri, line)
+        self.seeds_panel.show_results(found.text, list(found.summaries))
 
-        return search
+    def _describe_for_browse(self, iri: str) -> None:
+        """Ask the endpoint about a work for Browse, in the worker."""
+        workspace = self.workspace
+        if not isinstance(workspace, EndpointWorkspace):
+            return
+        self._browsing = iri
+        self.describer.request(lambda progress: workspace.details(iri, progress)[1])
+
+    def _browse_answered(self, answer: AskAnswer) -> None:
+        index = answer.value if isinstance(answer.value, Index) else None
+        self.browse_panel.show_details(self._browsing, index, answer.error)
 
     # ----- files -----------------------------------------------------------------------------
 
@@ -1084,6 +1132,8 @@ class MainWindow(QMainWindow):
                 dialog.reject()
         self.loader.stop()
         self.runner.stop()
+        self.searcher.stop()
+        self.describer.stop()
         self.balance_runner.stop()
         self.importer.stop()
         self.autosaver.stop()

@@ -2,8 +2,9 @@
 
 All run the services in a QThread and hand results back by queued signals. The loader copies
 nothing back until it has a whole workspace, so a failed or cancelled load leaves the window on
-the catalogue it had. The suggester and the balance number every request and drop any answer
-that is not the latest, so a quick series of edits shows only the result of the last one.
+the catalogue it had. The suggester, the balance and the endpoint's questions (title searches,
+a work's description) number every request and drop any answer that is not the latest, so a
+quick series of edits or keys shows only the result of the last one.
 """
 
 from __future__ import annotations
@@ -29,7 +30,9 @@ from curator.gui.describe import (
     candidate_row,
     endpoint_choices,
     lines_of,
+    summary_in,
 )
+from curator.services.browse import WorkSummary
 from curator.services.endpoint import EndpointWorkspace, open_endpoint
 from curator.services.sessions import SessionSuggestions, catalogue_for_list, suggest_for_session
 from curator.services.workspace import Workspace, open_catalogue
@@ -41,6 +44,15 @@ log = logging.getLogger(__name__)
 
 #: How many candidates the window asks for.
 CANDIDATE_LIMIT = 20
+#: The stages of a suggestion on an endpoint that the window names; the finer steps inside
+#: them (describing, labelling, indexing) only move the bar.
+SUGGESTION_STAGES = (
+    "Finding the seeds",
+    "Reading the seeds",
+    "Asking the endpoint for candidates",
+    "Describing the candidates",
+    "Suggesting",
+)
 
 
 def snapshot(session: Session) -> Session:
@@ -288,7 +300,7 @@ class NewestOnlyRunner(QObject):
         self.latest += 1
 
     @Slot(object)
-    def _on_answer(self, answer: SuggestionAnswer | BalanceAnswer) -> None:
+    def _on_answer(self, answer: SuggestionAnswer | BalanceAnswer | AskAnswer) -> None:
         if answer.generation == self.latest:
             self.ready.emit(answer)
 
@@ -299,14 +311,44 @@ class NewestOnlyRunner(QObject):
 
 
 class SuggestionRunner(NewestOnlyRunner):
-    """Suggestions for the session; ``ready`` carries a :class:`SuggestionAnswer`."""
+    """Suggestions for the session; ``ready`` carries a :class:`SuggestionAnswer`.
+
+    ``progressed`` reports the stage and fraction of the newest request (on an endpoint a
+    suggestion takes seconds; embedded ones report nothing worth showing).
+    """
+
+    progressed = Signal(str, float)
+    #: From the worker thread: (request number, stage, fraction).
+    _progress = Signal(int, str, float)
 
     def __init__(self, parent: QObject | None = None) -> None:
         super().__init__("suggestions", parent)
+        self._progress.connect(self._on_progress)
 
     def request(self, workspace: Opened, session: Session) -> int:
         """Ask for suggestions for a snapshot of ``session``; returns the request's number."""
         return self._ask(workspace, snapshot(session))
+
+    def cancel(self) -> None:
+        """Stop the suggestion under way: its answer will be dropped, and the worker gives up
+        at its next query (a query already sent is waited for in the background)."""
+        self.invalidate()
+
+    @Slot(int, str, float)
+    def _on_progress(self, generation: int, stage: str, fraction: float) -> None:
+        if generation == self.latest:
+            self.progressed.emit(stage, fraction)
+
+    def _reporter(self, generation: int, stale: Stale) -> Progress:
+        """A reporter naming only the suggestion's own stages, cancelled once overtaken."""
+        shown = [SUGGESTION_STAGES[0]]
+
+        def report(stage: str, fraction: float) -> None:
+            if stage in SUGGESTION_STAGES:
+                shown[0] = stage
+            self._progress.emit(generation, shown[0], fraction)
+
+        return Progress(callback=report, token=_StaleToken(stale))
 
     def work(self, generation: int, stale: Stale, *args: object) -> SuggestionAnswer:
         workspace, session = args
@@ -317,7 +359,7 @@ class SuggestionRunner(NewestOnlyRunner):
         error: str | None = None
         lines: dict[str, WorkLine] | None = None
         try:
-            progress = Progress(token=_StaleToken(stale))
+            progress = self._reporter(generation, stale)
             found = suggest_for_session(workspace, session, CANDIDATE_LIMIT, progress)
             suggestions = found.result.suggestions if found.result else ()
             rows = tuple(candidate_row(workspace, s) for s in suggestions)
@@ -365,6 +407,75 @@ class BalanceRunner(NewestOnlyRunner):
             log.exception("auditing the list failed")
             return BalanceAnswer(generation, None, f"Internal error while auditing: {exc}")
         return BalanceAnswer(generation, report, None)
+
+
+@dataclass(frozen=True)
+class AskAnswer:
+    """What one question to the endpoint came back with: a value, or the error to say."""
+
+    generation: int
+    value: object
+    error: str | None
+
+
+Question = Callable[[Progress], object]
+
+
+class AskRunner(NewestOnlyRunner):
+    """Asks the endpoint one question at a time off the GUI thread (a title search, a work's
+    description), so a slow endpoint never freezes the window; a question overtaken by a
+    newer one is given up at its next query and its answer dropped. ``ready`` carries an
+    :class:`AskAnswer`."""
+
+    def __init__(self, name: str, parent: QObject | None = None) -> None:
+        super().__init__(name, parent)
+        self._name = name
+
+    def request(self, question: Question) -> int:
+        """Run ``question`` (given a reporter to check) in the worker; returns its number."""
+        return self._ask(question)
+
+    def work(self, generation: int, stale: Stale, *args: object) -> AskAnswer:
+        (question,) = args
+        assert callable(question)
+        try:
+            value = question(Progress(token=_StaleToken(stale)))
+        except Cancelled:
+            return AskAnswer(generation, None, "Stopped: a newer question was asked.")
+        except CuratorError as exc:
+            return AskAnswer(generation, None, str(exc))
+        except Exception as exc:
+            log.exception("%s failed", self._name)
+            return AskAnswer(generation, None, f"Internal error: {exc}")
+        return AskAnswer(generation, value, None)
+
+
+@dataclass(frozen=True)
+class SearchFound:
+    """Titles an endpoint found for ``text``, with what it said about each (for bylines)."""
+
+    text: str
+    summaries: tuple[WorkSummary, ...]
+    lines: dict[str, WorkLine]
+
+
+def search_endpoint(
+    workspace: EndpointWorkspace, text: str, limit: int, progress: Progress
+) -> SearchFound:
+    """Title search through the endpoint (a few queries: run it in an :class:`AskRunner`)."""
+    found, index = workspace.search_labelled(text, limit, progress)
+    if index is None:
+        return SearchFound(text, (), {})
+    summaries = tuple(summary_in(index, record) for _match, record in found)
+    lines = {
+        s.iri: WorkLine(
+            s.iri,
+            s.title,
+            " · ".join(p for p in (s.creators, str(s.year or ""), s.kind) if p),
+        )
+        for s in summaries
+    }
+    return SearchFound(text, summaries, lines)
 
 
 class _Task(QObject):

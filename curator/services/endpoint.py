@@ -173,19 +173,29 @@ class EndpointWorkspace:
         self._resolved[stripped] = found
         return found
 
-    def search(self, text: str, limit: int = 20) -> list[tuple[TitleMatch, WorkRecord]]:
+    def search(
+        self, text: str, limit: int = 20, progress: Progress | None = None
+    ) -> list[tuple[TitleMatch, WorkRecord]]:
         """Works whose titles start with, contain or resemble ``text``, best first, with their
         records (positions are those of a small index of the matches)."""
-        return self.search_labelled(text, limit)[0]
+        return self.search_labelled(text, limit, progress)[0]
 
     def search_labelled(
-        self, text: str, limit: int = 20
+        self, text: str, limit: int = 20, progress: Progress | None = None
     ) -> tuple[list[tuple[TitleMatch, WorkRecord]], Index | None]:
         """As :meth:`search`, with the small index of the matches, which labels their creators
-        and kinds (so a search popup can tell namesakes apart)."""
+        and kinds (so a search popup can tell namesakes apart).
+
+        ``progress`` is checked between the queries, so a search overtaken by newer typing
+        stops early (raising :class:`~curator.core.errors.Cancelled`).
+        """
         if not fold(text):
             return [], None
-        finder = self._finder(self._title_works(text))
+        progress = progress or silent()
+        progress.report("Searching the titles", 0.0)
+        works = self._title_works(text)
+        progress.report("Describing the matches", 0.3)
+        finder = self._finder(works, progress.part(0.3, 1.0))
         found = [(m, finder.index.records[m.position]) for m in finder.search(text, limit)]
         return found, finder.index
 
@@ -220,13 +230,17 @@ class EndpointWorkspace:
         endpoint's global frequencies: enough to audit or export a list."""
         return neighbourhood(self.endpoint, self.profile, self.frequencies, list(iris)).index
 
-    def details(self, iri: str) -> tuple[WorkRecord, Index]:
-        """A work's record and an index that labels what it points at.
+    def details(self, iri: str, progress: Progress | None = None) -> tuple[WorkRecord, Index]:
+        """A work's record and an index that labels what it points at (``progress`` is checked
+        between the queries).
 
         Raises:
             SeedError: ``iri`` is not a work of the catalogue.
+            Cancelled: cancelled through ``progress``.
         """
-        found = neighbourhood(self.endpoint, self.profile, self.frequencies, [_checked(iri)])
+        found = neighbourhood(
+            self.endpoint, self.profile, self.frequencies, [_checked(iri)], progress=progress
+        )
         if iri not in found.index.position:
             raise SeedError(f"<{iri}> is not a work of this catalogue.")
         return found.index.record(iri), found.index

@@ -42,8 +42,10 @@ def open_endpoint_window(qtbot: Any, window: MainWindow, url: str) -> None:
 
 
 def seed_by_search(qtbot: Any, window: MainWindow, typed: str, title: str) -> str:
-    """Type part of a title, pick the result with ``title``, wait for the candidates."""
-    window.seeds_panel.search(typed)
+    """Type part of a title, wait for the worker's results, pick the one with ``title``, wait
+    for the candidates."""
+    with qtbot.waitSignal(window.seeds_panel.searched, timeout=OPEN_TIMEOUT_MS):
+        window.seeds_panel.search(typed)
     results = window.seeds_panel.results
     row = next(r for r in range(results.rowCount()) if results._rows[r].title == title)
     with qtbot.waitSignal(window.suggestions_shown, timeout=OPEN_TIMEOUT_MS):
@@ -147,9 +149,10 @@ def test_browse_and_balance_work_through_the_endpoint(
     win = endpoint_window
     seed_by_search(qtbot, win, "Mirror of Gullstane", MIRROR)
     first = win.candidate_model.rows()[0]
-    win.browse_panel.show_iri(first.iri)
+    win.browse_panel.show_iri(first.iri)  # described by the suggestion: shown at once
     page = win.browse_panel.page.toPlainText()
     assert first.line.title in page and "Add to list" in page and "not links here" in page
+    assert not win.browse_panel.asking
     with qtbot.waitSignal(win.suggestions_shown, timeout=OPEN_TIMEOUT_MS):
         win.editor.accept([first.iri])
     win.show_balance()

@@ -201,6 +201,9 @@ class StartingTitlesPanel(QWidget):
         self._take_first = False
         self._show("", [])
         self.completer.popup().hide()
+        message = message.strip()
+        if message and message[-1] not in ".!?":
+            message += "."
         self._note(f"The endpoint could not be searched: {message} Type again to retry.", True)
         self.searched.emit()
 

@@ -104,6 +104,9 @@ NO_LANGUAGES_ON_ENDPOINT = (
     "Offering the languages would mean reading every work of the endpoint; on an endpoint "
     "candidates come in all languages."
 )
+ASKING_FOR_CANDIDATES = (
+    "Asking the endpoint for candidates; the status bar shows how far it has got."
+)
 SUGGESTION_STOPPED = (
     "Suggesting stopped. The candidates shown were suggested before your last change; change "
     "the list or the settings to suggest again."
@@ -585,6 +588,8 @@ class MainWindow(QMainWindow):
         if self.endpoint_mode and self.suggest_status.isHidden():
             self.suggest_status.begin(SUGGESTION_STAGES[0])
             self.candidates_panel.set_status("Suggesting…")
+            if not self.candidate_model.rowCount():
+                self.candidates_panel.set_message(ASKING_FOR_CANDIDATES)
 
     def _forget_suggestion(self) -> None:
         """Drop the suggestion in flight (its answer would be for another list or catalogue)."""
@@ -597,10 +602,13 @@ class MainWindow(QMainWindow):
             return
         self._forget_suggestion()
         count = self.candidate_model.rowCount()
-        self.candidates_panel.set_status(f"Stopped; {count} from before")
+        self.candidates_panel.set_status(
+            f"Stopped · {count} from before your last change" if count else "Stopped"
+        )
+        self.candidates_panel.status.setToolTip(SUGGESTION_STOPPED)
         self.candidates_panel.set_message(SUGGESTION_STOPPED)
         self._changed_at = None
-        self.statusBar().showMessage("Suggesting stopped.", 5000)
+        self.statusBar().showMessage(SUGGESTION_STOPPED, 8000)
 
     def _show_answer(self, answer: SuggestionAnswer) -> None:
         self.suggest_status.end()

@@ -24,7 +24,7 @@ from curator.core.errors import Cancelled
 from curator.core.progress import CancelToken, Progress
 from curator.gui.browse_panel import ASKING
 from curator.gui.seeds_panel import SEARCHING
-from curator.gui.window import SUGGESTION_STOPPED, MainWindow
+from curator.gui.window import ASKING_FOR_CANDIDATES, SUGGESTION_STOPPED, MainWindow
 from curator.gui.workers import SUGGESTION_STAGES
 from curator.services.endpoint import EndpointWorkspace, open_endpoint
 from curator.services.workspace import Workspace
@@ -189,7 +189,8 @@ def test_a_failing_or_slow_endpoint_is_said_under_the_field(
     with qtbot.waitSignal(panel.searched, timeout=WAIT_MS):
         panel.search("mirror")
     note = panel.search_note.text()
-    assert "could not be searched" in note and "HTTP 500" in note and "maintenance" in note
+    assert "could not be searched" in note and "HTTP 500" in note
+    assert "for maintenance. Type again to retry." in note
     assert titles_shown(win) == [] and not panel.searching and panel.field.isEnabled()
     assert dialogs.shown == []  # said in place, no box in the way of typing
     # a timeout: the endpoint answers after the window has stopped waiting
@@ -259,10 +260,12 @@ def test_suggestion_progress_names_its_stages(
     win.runner.progressed.connect(lambda _s, f: fractions.append(f))
     slow_endpoint.delay = 0.03
     seen: list[tuple[bool, str]] = []
+    messages: set[str] = set()
     probe = QTimer()
     probe.timeout.connect(
         lambda: seen.append((win.suggest_status.isVisible(), win.suggest_status.stage.text()))
     )
+    probe.timeout.connect(lambda: messages.add(win.candidates_panel._message))
     probe.start(10)
     _seed(qtbot, win, iri_of(demo_workspace, MIRROR))
     probe.stop()
@@ -274,6 +277,7 @@ def test_suggestion_progress_names_its_stages(
     assert set(stages) <= set(SUGGESTION_STAGES)  # the finer steps only move the bar
     assert fractions == sorted(fractions) and fractions[-1] == pytest.approx(1.0)
     assert any(visible and text in SUGGESTION_STAGES for visible, text in seen)
+    assert ASKING_FOR_CANDIDATES in messages  # not "add a starting title" while it works
     assert win.suggest_status.isHidden() and len(win.candidate_model.iris()) == 20
     assert win.candidates_panel.status.text() == "20 candidates"
 
@@ -300,7 +304,7 @@ def test_cancel_a_suggestion_keeps_the_candidates_shown(
     assert win.suggest_status.isHidden()
     assert win.candidate_model.iris() == before
     assert win.candidates_panel._message == SUGGESTION_STOPPED
-    assert win.candidates_panel.status.text() == "Stopped; 20 from before"
+    assert win.candidates_panel.status.text() == "Stopped · 20 from before your last change"
     qtbot.wait(1200)  # the worker gives up at its next query; its answer is never shown
     assert win.candidate_model.iris() == before and shown == []
     assert slow_endpoint.queries - queries <= 2

@@ -109,6 +109,7 @@ class _LoadJob(QObject):
                     request.endpoint,
                     languages=request.languages,
                     timeout=request.timeout,
+                    use_disk_cache=True,
                     progress=progress,
                 )
                 progress.check()

@@ -6,6 +6,7 @@ import argparse
 import json
 import sys
 import textwrap
+import time
 from collections.abc import Sequence
 from pathlib import Path
 
@@ -163,6 +164,11 @@ def _finish_cache_copies() -> None:
     """Say why the command has not ended yet when the copy of a newly opened catalogue is still
     being written (the next open of the same files then takes a second), and wait for it."""
     pending = [w for w in _OPENED if w.saver is not None and w.saver.running]
+    # A small catalogue's copy is done in a moment: only a longer wait is worth a word.
+    deadline = time.monotonic() + 0.5
+    for workspace in pending:
+        workspace.wait_for_cache(max(0.0, deadline - time.monotonic()))
+    pending = [w for w in pending if w.saver is not None and w.saver.running]
     if pending:
         sys.stderr.write(
             "curator: keeping a copy of the catalogue so that it opens quickly next time "

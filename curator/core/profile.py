@@ -13,7 +13,7 @@ from __future__ import annotations
 import re
 import tomllib
 from collections import Counter, defaultdict
-from collections.abc import Collection, Mapping, Sequence
+from collections.abc import Callable, Collection, Iterable, Mapping, Sequence
 from dataclasses import asdict, dataclass, field, replace
 from pathlib import Path
 from typing import Any, Literal, get_args
@@ -483,20 +483,111 @@ def detect_profile(
     number = {p: i for i, p in enumerate(columns.paths)}
     used = stats.paths()
 
-    label_paths = [p for p in LABEL_PROPERTIES if p in number and stats.uses[number[p]] > 0]
+    shape = classify_paths(
+        [
+            PathUse(
+                path,
+                uses=int(stats.uses[number[path]]),
+                literal_uses=int(stats.literal_uses[number[path]]),
+                to_works=int(stats.to_works[number[path]]),
+                shared=int(stats.shared[number[path]]),
+            )
+            for path in used
+        ],
+        instance_links=instance_links,
+        literal_samples=lambda path: stats.literal_samples(number[path]),
+        role_of=lambda path: _role_of(path, stats.values(number[path]), types),
+    )
+    if hierarchy_present is None:
+        hierarchy_present = [h for h in HIERARCHY_PROPERTIES if reader.has_edge(h.lstrip("^"))]
+    creator_links = _detect_creator_links(
+        catalogue, statements, list(shape.themes), works, reader=reader
+    )
+    return shape.profile(
+        work_classes=work_classes,
+        languages=languages,
+        instance_links=instance_links,
+        hierarchy=hierarchy_present,
+        creator_links=creator_links,
+        notes=notes,
+    )
+
+
+@dataclass(frozen=True)
+class PathUse:
+    """How the works use one property path: how often, how often with a literal, how often
+    pointing at another work, and how many of its values two or more works share."""
+
+    path: str
+    uses: int = 0
+    literal_uses: int = 0
+    to_works: int = 0
+    shared: int = 0
+
+
+@dataclass(frozen=True)
+class PathShape:
+    """The part each property plays, as :func:`classify_paths` decides it."""
+
+    label_paths: tuple[str, ...]
+    themes: tuple[ThemeProperty, ...]
+    work_links: tuple[LinkProperty, ...]
+    years: tuple[str, ...]
+    languages: tuple[str, ...]
+    audiences: tuple[str, ...]
+
+    def profile(
+        self,
+        *,
+        work_classes: Sequence[str],
+        languages: Sequence[str],
+        instance_links: Sequence[str],
+        hierarchy: Sequence[str],
+        creator_links: Sequence[LinkProperty],
+        notes: Sequence[str],
+    ) -> Profile:
+        return Profile(
+            work_classes=tuple(work_classes),
+            label_properties=self.label_paths or LABEL_PROPERTIES,
+            languages=tuple(languages),
+            instance_links=tuple(instance_links),
+            themes=self.themes,
+            hierarchy=tuple(hierarchy),
+            work_links=self.work_links,
+            creator_links=tuple(creator_links),
+            year_properties=tuple(_ordered(list(self.years), _YEAR_PROPS)),
+            language_properties=self.languages,
+            audience_properties=self.audiences,
+            notes=tuple(notes),
+        )
+
+
+def classify_paths(
+    uses: Iterable[PathUse],
+    *,
+    instance_links: Sequence[str],
+    literal_samples: Callable[[str], Sequence[str]],
+    role_of: Callable[[str], str],
+) -> PathShape:
+    """Say which part each property path plays, from how the works use it. The one rule for
+    catalogues read in full and for endpoints asked by aggregate queries: labels first; then a
+    path mostly with literals is a year, language, audience or literal subject by its samples;
+    one mostly pointing at works is a link; one with shared values is a theme of the role its
+    values' types give (``role_of``)."""
+    found = {u.path: u for u in uses if u.uses > 0}
+    label_paths = tuple(p for p in LABEL_PROPERTIES if p in found)
     instance_preds = {link.lstrip("^") for link in instance_links}
     themes: list[ThemeProperty] = []
     work_links: list[LinkProperty] = []
     years: list[str] = []
     langs: list[str] = []
     audiences: list[str] = []
-    for path in sorted(used):
-        i = number[path]
+    for path in sorted(found):
+        use = found[path]
         if path in _SKIPPED_PATHS or path in label_paths or path.lstrip("^") in instance_preds:
             continue
-        uses, literal_uses = int(stats.uses[i]), int(stats.literal_uses[i])
-        if literal_uses * 2 >= uses:
-            kind = _literal_kind(path, stats.literal_samples(i))
+        if use.literal_uses * 2 >= use.uses:
+            kind = _literal_kind(path, literal_samples(path))
             if kind == "year":
                 years.append(path)
             elif kind == "language":
@@ -506,7 +597,7 @@ def detect_profile(
             elif kind == "theme":
                 themes.append(ThemeProperty(path, "subject", ROLE_WEIGHTS["subject"]))
             continue
-        if int(stats.to_works[i]) * 2 >= uses - literal_uses:
+        if use.to_works * 2 >= use.uses - use.literal_uses:
             work_links.append(LinkProperty(path, 1.0))
             continue
         if path in _LANGUAGE_PROPS:
@@ -514,27 +605,17 @@ def detect_profile(
             continue
         if path in _AUDIENCE_PROPS:
             audiences.append(path)
-        if int(stats.shared[i]) == 0:
+        if use.shared == 0:
             continue
-        role = _role_of(path, stats.values(i), types)
+        role = role_of(path)
         themes.append(ThemeProperty(path, role, ROLE_WEIGHTS[role]))
-
-    if hierarchy_present is None:
-        hierarchy_present = [h for h in HIERARCHY_PROPERTIES if reader.has_edge(h.lstrip("^"))]
-    creator_links = _detect_creator_links(catalogue, statements, themes, works, reader=reader)
-    return Profile(
-        work_classes=tuple(work_classes),
-        label_properties=tuple(label_paths) or LABEL_PROPERTIES,
-        languages=tuple(languages),
-        instance_links=tuple(instance_links),
-        themes=tuple(themes),
-        hierarchy=tuple(hierarchy_present),
-        work_links=tuple(work_links),
-        creator_links=tuple(creator_links),
-        year_properties=tuple(_ordered(years, _YEAR_PROPS)),
-        language_properties=tuple(langs),
-        audience_properties=tuple(audiences),
-        notes=tuple(notes),
+    return PathShape(
+        label_paths,
+        tuple(themes),
+        tuple(work_links),
+        tuple(years),
+        tuple(langs),
+        tuple(audiences),
     )
 
 

@@ -53,17 +53,15 @@ from curator.core.index import LITERAL_PREFIX, Feature, Index, build_index
 from curator.core.profile import (
     _AUDIENCE_PROPS,
     _LANGUAGE_PROPS,
-    _SKIPPED_PATHS,
     _SUBJECT_PROPS,
     _YEAR_PROPS,
     HIERARCHY_PROPERTIES,
-    ROLE_WEIGHTS,
     LinkProperty,
+    PathUse,
     Profile,
     ThemeProperty,
-    _literal_kind,
-    _ordered,
     _role_of,
+    classify_paths,
     detect_instance_links,
     detect_work_classes,
 )
@@ -349,64 +347,35 @@ def detect_profile_remote(
             value_types[path.value].append((cls.value, _int(n)))
     stats = {p: _PathCounts(**c) for p, c in counts.items()}
 
-    label_paths = [p for p in LABEL_PROPERTIES if stats.get(p, _PathCounts()).uses > 0]
-    instance_preds = {link.lstrip("^") for link in instance_links}
-    themes: list[ThemeProperty] = []
-    work_links: list[LinkProperty] = []
-    years: list[str] = []
-    langs: list[str] = []
-    audiences: list[str] = []
     known_literal_paths = _YEAR_PROPS | _LANGUAGE_PROPS | _AUDIENCE_PROPS | _SUBJECT_PROPS
-    for path in sorted(p for p, s in stats.items() if s.uses > 0):
-        s = stats[path]
-        if path in _SKIPPED_PATHS or path in label_paths or path.lstrip("^") in instance_preds:
-            continue
-        if s.literals * 2 >= s.uses:
-            samples = (
-                []
-                if path in known_literal_paths
-                else _literal_samples(endpoint, work_classes, instance_links, path)
-            )
-            kind = _literal_kind(path, samples)
-            if kind == "year":
-                years.append(path)
-            elif kind == "language":
-                langs.append(path)
-            elif kind == "audience":
-                audiences.append(path)
-            elif kind == "theme":
-                themes.append(ThemeProperty(path, "subject", ROLE_WEIGHTS["subject"]))
-            continue
-        if s.to_works * 2 >= s.uses - s.literals:
-            work_links.append(LinkProperty(path, 1.0))
-            continue
-        if path in _LANGUAGE_PROPS:
-            langs.append(path)
-            continue
-        if path in _AUDIENCE_PROPS:
-            audiences.append(path)
-        if s.shared == 0:
-            continue
-        role = _role_of(path, _Values(s.values, value_types.get(path, [])), _Values.TYPES)
-        themes.append(ThemeProperty(path, role, ROLE_WEIGHTS[role]))
+    shape = classify_paths(
+        [
+            PathUse(path, s.uses, literal_uses=s.literals, to_works=s.to_works, shared=s.shared)
+            for path, s in stats.items()
+        ],
+        instance_links=instance_links,
+        # Known literal properties are told by name: no need to ask for samples.
+        literal_samples=lambda path: []
+        if path in known_literal_paths
+        else _literal_samples(endpoint, work_classes, instance_links, path),
+        role_of=lambda path: _role_of(
+            path, _Values(stats[path].values, value_types.get(path, [])), _Values.TYPES
+        ),
+    )
 
     progress.report("Looking for hierarchies and links", 0.8)
     hierarchy = [h for h in HIERARCHY_PROPERTIES if reader.has_edge(h.lstrip("^"))]
-    creator_links = _detect_creator_links(endpoint, work_classes, instance_links, themes)
+    creator_links = _detect_creator_links(
+        endpoint, work_classes, instance_links, list(shape.themes)
+    )
     progress.report("Profile ready", 1.0)
-    return Profile(
-        work_classes=tuple(work_classes),
-        label_properties=tuple(label_paths) or LABEL_PROPERTIES,
-        languages=tuple(languages),
-        instance_links=tuple(instance_links),
-        themes=tuple(themes),
-        hierarchy=tuple(hierarchy),
-        work_links=tuple(work_links),
-        creator_links=tuple(creator_links),
-        year_properties=tuple(_ordered(years, _YEAR_PROPS)),
-        language_properties=tuple(langs),
-        audience_properties=tuple(audiences),
-        notes=tuple(notes),
+    return shape.profile(
+        work_classes=work_classes,
+        languages=languages,
+        instance_links=instance_links,
+        hierarchy=hierarchy,
+        creator_links=creator_links,
+        notes=notes,
     )
 
 

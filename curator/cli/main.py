@@ -99,6 +99,9 @@ def build_parser() -> argparse.ArgumentParser:
                    help="a work already on the list (never suggested; counts as redundancy)")
     s.add_argument("--dismiss", action="append", default=[], metavar="IRI_OR_TITLE",
                    help="a work ruled out (never suggested; pushes down what resembles it)")
+    s.add_argument("--with-versions", action="store_true",
+                   help="also suggest other versions of the seeds and list entries (readings, "
+                   "editions of the same title by the same creator)")
     s.add_argument("--json", action="store_true", help="print JSON instead of a table")
 
     p = commands.add_parser("profile", help="show how the catalogue is read")
@@ -195,6 +198,7 @@ def _run_suggest(args: argparse.Namespace) -> int:
         year_to=args.year_to,
         languages=tuple(args.filter_languages or ()),
         shared_property=args.shared_property,
+        other_versions=args.with_versions,
     ).checked()
     workspace = _open(args)
     result = suggest(

@@ -31,6 +31,7 @@ from curator.core.similarity import (
     push_operator,
 )
 from curator.core.targets import Targets
+from curator.core.versions import other_versions
 
 Mode = Literal["blend", "content", "graph", "shared-count"]
 MODES: tuple[str, ...] = get_args(Mode)
@@ -72,6 +73,10 @@ class SuggestSettings:
     fill_gaps: bool = False
     gap_weight: float = DEFAULT_GAP_WEIGHT
     targets: Targets | None = None
+    #: Suggest other versions of the seeds and list entries too (a reading or edition of the
+    #: same title by the same creator, see :mod:`curator.core.versions`); when off they are
+    #: left out, and the notes name them.
+    other_versions: bool = False
 
     def checked(self) -> SuggestSettings:
         """The same settings, or a :class:`SettingsError` naming the field that is off."""
@@ -316,6 +321,16 @@ class Suggester:
         excluded[dismissed] = True
         allowed = self.allowed(settings) & ~excluded
         notes: list[str] = []
+        if not settings.other_versions and settings.mode != "shared-count":
+            # (shared-count ranks as the SPARQL baseline does: every work but the seeds)
+            versions = [v for v in other_versions(index, [*seeds, *list_items]) if allowed[v]]
+            if versions:
+                allowed[versions] = False
+                names = ", ".join(f"‘{index.records[v].label}’" for v in sorted(versions)[:4])
+                more = f" and {len(versions) - 4} more" if len(versions) > 4 else ""
+                notes.append(
+                    f"Left out other versions of the starting titles and list: {names}{more}."
+                )
 
         if settings.mode == "shared-count":
             prop = settings.shared_property or self.default_shared_property()

@@ -170,7 +170,12 @@ def test_content_mode_at_lambda_one_is_cosine_order(demo_workspace, reference_ve
     positions = spread(len(index.works))
     for start in range(0, len(positions) - count + 1):
         seeds = positions[start:start + count]
-        result = run(demo_workspace, [index.works[s] for s in seeds], mode="content", lam=1.0)
+        # Every work but the seeds competes here, as in the reference (versions of the seeds
+        # too: they are left out by default, see test_other_versions_of_the_seeds_are_left_out).
+        result = run(
+            demo_workspace, [index.works[s] for s in seeds], mode="content", lam=1.0,
+            other_versions=True,
+        )
         # reference: scikit-learn cosine_similarity, averaged over the seeds
         cos = cosine_similarity(reference_vectors, reference_vectors[seeds]).mean(axis=1)
         cos[seeds] = -np.inf
@@ -385,3 +390,19 @@ def test_settings_out_of_range_name_the_setting(demo_workspace, field, value, wo
     # reference: Carbonell & Goldstein (1998) define lambda on [0, 1]; a list has >= 1 entry
     with pytest.raises(SettingsError, match=word):
         run(demo_workspace, [demo_workspace.index.works[0]], **{field: value})
+
+
+def test_other_versions_of_the_seeds_are_left_out(demo_workspace):
+    # The demo's two readings of "Thessaly's Heron" (same author, linked by schema:isBasedOn,
+    # the title in brackets after the original's) are versions; the film of "The Mirror of
+    # Gullstane" by another director and its sequel by the same author are works of their own.
+    work = "https://hollinmere.example/work/"
+    heron = run(demo_workspace, ["Thessaly's Heron"], limit=20)
+    readings = {work + "thessalys-heron-unabridged", work + "thessalys-heron-abridged"}
+    assert not readings & set(iris(heron))
+    assert any("Thessaly's Heron (unabridged)" in note for note in heron.notes)
+    both = run(demo_workspace, ["Thessaly's Heron"], limit=20, other_versions=True)
+    assert readings <= set(iris(both))
+    mirror = iris(run(demo_workspace, ["The Mirror of Gullstane"], limit=20))
+    assert work + "la-photographie-de-gullstane" in mirror
+    assert work + "la-promesse-de-gullstane" in mirror

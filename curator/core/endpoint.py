@@ -58,8 +58,8 @@ _STRING_ESCAPES = {
 def sparql_string(text: str) -> str:
     """``text`` as a quoted SPARQL string literal, every character that could end it or
     break the line escaped (SPARQL 1.1 grammar, STRING_LITERAL_QUOTE and ECHAR); other
-    control characters become ``\\uXXXX`` escapes. What a curator types goes into a query
-    only through here."""
+    control characters become four-digit ``\\u`` escapes (a bell is ``\\u0007``). What a
+    curator types goes into a query only through here."""
     out = []
     for char in text:
         escaped = _STRING_ESCAPES.get(char)

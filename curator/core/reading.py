@@ -70,8 +70,22 @@ def join_path(*iris: str) -> str:
     return " ".join(iris)
 
 
-def _iri_list(iris: Iterable[str]) -> str:
-    return " ".join(f"<{sparql_iri(i)}>" for i in iris)
+def iri_list(iris: Iterable[str], separator: str = " ") -> str:
+    """IRIs as ``<...>`` terms for a query (each checked by :func:`sparql_iri`)."""
+    return separator.join(f"<{sparql_iri(i)}>" for i in iris)
+
+
+def instance_sources(works: str, instance_links: Sequence[str]) -> list[str]:
+    """Patterns binding a work ``?w`` (from the subquery ``works``) and a subject ``?s`` whose
+    statements count for it: the work itself, then its instances through each instance link
+    (``^p`` when the work points at its instances, ``p`` when they point at it)."""
+    found = [f"{works} BIND(?w AS ?s)"]
+    for link in instance_links:
+        if link.startswith("^"):
+            found.append(f"{works} ?w <{sparql_iri(link[1:])}> ?s .")
+        else:
+            found.append(f"{works} ?s <{sparql_iri(link)}> ?w .")
+    return found
 
 
 def sparql_iri(iri: str) -> str:
@@ -713,7 +727,7 @@ class CatalogueReader:
         for start in range(0, len(usable), 2000):
             batch = usable[start : start + 2000]
             rows = self.catalogue.select(
-                f"SELECT ?a ?p ?b WHERE {{ VALUES ?a {{ {_iri_list(batch)} }} ?a ?p ?b . "
+                f"SELECT ?a ?p ?b WHERE {{ VALUES ?a {{ {iri_list(batch)} }} ?a ?p ?b . "
                 f"FILTER(isIRI(?b) && ?p != <{RDF.type}>) }}"
             )
             for a, p, b in rows:
@@ -725,7 +739,7 @@ class CatalogueReader:
         rank = {p: i for i, p in enumerate(label_properties)}
         labels: dict[str, list[LabelCandidate]] = defaultdict(list)
         rows = self.catalogue.select(
-            f"SELECT ?s ?p ?l WHERE {{ VALUES ?p {{ {_iri_list(direct)} }} ?s ?p ?l . "
+            f"SELECT ?s ?p ?l WHERE {{ VALUES ?p {{ {iri_list(direct)} }} ?s ?p ?l . "
             "FILTER(isLiteral(?l)) }"
         )
         for s, p, lit in rows:
@@ -753,7 +767,7 @@ class CatalogueReader:
         self, work_classes: Sequence[str], instance_links: Sequence[str], progress: Progress
     ) -> WorkStatements:
         works_q = (
-            f"{{ SELECT DISTINCT ?w WHERE {{ VALUES ?c {{ {_iri_list(work_classes)} }} "
+            f"{{ SELECT DISTINCT ?w WHERE {{ VALUES ?c {{ {iri_list(work_classes)} }} "
             "?w a ?c } }"
         )
         catalogue = self.catalogue
@@ -764,12 +778,7 @@ class CatalogueReader:
         )
         if not works:
             return WorkStatements(works=works)
-        sources = [f"{works_q} BIND(?w AS ?s)"]
-        for link in instance_links:
-            if link.startswith("^"):
-                sources.append(f"{works_q} ?w <{sparql_iri(link[1:])}> ?s .")
-            else:
-                sources.append(f"{works_q} ?s <{sparql_iri(link)}> ?w .")
+        sources = instance_sources(works_q, instance_links)
         link_preds = {link.lstrip("^") for link in instance_links}
         links: dict[tuple[str, str, str], None] = {}
         literals: dict[tuple[str, str, str, str], None] = {}

@@ -66,7 +66,7 @@ from curator.core.profile import (
     detect_work_classes,
 )
 from curator.core.progress import Progress, silent
-from curator.core.reading import LABEL_PROPERTIES, sparql_iri
+from curator.core.reading import LABEL_PROPERTIES, instance_sources, iri_list, sparql_iri
 from curator.core.similarity import (
     PAGERANK_ALPHA,
     PUSH_EPSILON,
@@ -96,15 +96,13 @@ def _iri(iri: str) -> str:
     return f"<{sparql_iri(iri)}>"
 
 
-def _iris(iris: Iterable[str], separator: str = " ") -> str:
-    return separator.join(_iri(i) for i in iris)
 
 
-def _one_of(var: str, iris: Iterable[str]) -> str:
+def one_of(var: str, iris: Iterable[str]) -> str:
     """``FILTER(?var IN (...))``. A second VALUES block beside a first one makes some engines
     (Oxigraph among them) join their cross product with a scan of every statement: a
     hundred times slower than the filter on a 10k-work catalogue, and it grows with it."""
-    return f"FILTER({var} IN ({_iris(iris, ', ')}))"
+    return f"FILTER({var} IN ({iri_list(iris, ', ')}))"
 
 
 def _term(term: Term) -> str:
@@ -126,11 +124,12 @@ def _number(value: float) -> str:
 def _works_block(classes: Sequence[str], limit: int | None = None) -> str:
     """The works as a subquery; with ``limit``, only the first ``limit`` the endpoint gives."""
     cut = f" LIMIT {int(limit)}" if limit else ""
-    return f"{{ SELECT DISTINCT ?w WHERE {{ VALUES ?wc {{ {_iris(classes)} }} ?w a ?wc }}{cut} }}"
+    kinds = iri_list(classes)
+    return f"{{ SELECT DISTINCT ?w WHERE {{ VALUES ?wc {{ {kinds} }} ?w a ?wc }}{cut} }}"
 
 
 def _is_work(var: str, classes: Sequence[str]) -> str:
-    return f"EXISTS {{ VALUES ?wc {{ {_iris(classes)} }} {var} a ?wc }}"
+    return f"EXISTS {{ VALUES ?wc {{ {iri_list(classes)} }} {var} a ?wc }}"
 
 
 def _sources(
@@ -139,14 +138,7 @@ def _sources(
     """Patterns binding a work ``?w`` and a subject ``?s`` whose statements count for it: the
     work itself, and its instances through each instance link (of the first ``limit`` works
     only, when given)."""
-    works = _works_block(classes, limit)
-    found = [f"{works} BIND(?w AS ?s)"]
-    for link in instance_links:
-        if link.startswith("^"):
-            found.append(f"{works} ?w {_iri(link[1:])} ?s .")
-        else:
-            found.append(f"{works} ?s {_iri(link)} ?w .")
-    return found
+    return instance_sources(_works_block(classes, limit), instance_links)
 
 
 def _all_rows(
@@ -157,7 +149,7 @@ def _all_rows(
     skipped = [RDF.type, *(link.lstrip("^") for link in instance_links)]
     parts = []
     for number, source in enumerate(_sources(classes, instance_links, limit)):
-        skip = f"FILTER(?p NOT IN ({_iris(skipped, ', ')}))" if number else ""
+        skip = f"FILTER(?p NOT IN ({iri_list(skipped, ', ')}))" if number else ""
         parts.append(
             f"{{ {source} ?s ?p ?o . FILTER(!isBlank(?o)) {skip} BIND(STR(?p) AS ?path) }}"
         )
@@ -610,7 +602,7 @@ def fetch_frequencies(
             endpoint,
             f"SELECT DISTINCT ?a ?p ?b WHERE {{ "
             f"{{ SELECT DISTINCT ?a WHERE {{ {makers_a} }} }} "
-            f"VALUES ?p {{ {_iris(link.path for link in profile.creator_links)} }} ?a ?p ?b . "
+            f"VALUES ?p {{ {iri_list(link.path for link in profile.creator_links)} }} ?a ?p ?b . "
             f"FILTER(isIRI(?b) && ?a != ?b) "
             f"{{ SELECT DISTINCT ?b WHERE {{ {makers_b} }} }} }}",
         ):
@@ -649,7 +641,7 @@ def _vocabulary(endpoint: SparqlEndpoint, profile: Profile) -> str:
         )
         for part in path.split(" ")
     }
-    labels = _one_of("?p", _direct_labels(profile))
+    labels = one_of("?p", _direct_labels(profile))
     queries = [
         f"SELECT ?s ?p ?o WHERE {{ ?s {_iri(RDFS.subClassOf)} ?o . "
         "FILTER(isIRI(?s) && isIRI(?o)) "
@@ -659,7 +651,7 @@ def _vocabulary(endpoint: SparqlEndpoint, profile: Profile) -> str:
     ]
     if properties:
         queries.append(
-            f"SELECT ?s ?p ?o WHERE {{ VALUES ?s {{ {_iris(sorted(properties))} }} "
+            f"SELECT ?s ?p ?o WHERE {{ VALUES ?s {{ {iri_list(sorted(properties))} }} "
             f"?s ?p ?o . {labels} FILTER(isLiteral(?o)) }}"
         )
     lines: dict[str, None] = {}
@@ -782,13 +774,13 @@ def neighbour_query(profile: Profile, seeds: Sequence[str], limit: int) -> str |
     if profile.creator_links and creator_paths:
         step = _link_path([link.path for link in profile.creator_links])
         branches.append(
-            f"{{ ?seed ?cp ?c . {_one_of('?cp', creator_paths)} ?c {step} ?c2 . "
-            f"?w ?cq ?c2 . {_one_of('?cq', creator_paths)} }}"
+            f"{{ ?seed ?cp ?c . {one_of('?cp', creator_paths)} ?c {step} ?c2 . "
+            f"?w ?cq ?c2 . {one_of('?cq', creator_paths)} }}"
         )
     if not branches or not seeds:
         return None
     return (
-        f"SELECT DISTINCT ?w WHERE {{ VALUES ?seed {{ {_iris(seeds)} }} "
+        f"SELECT DISTINCT ?w WHERE {{ VALUES ?seed {{ {iri_list(seeds)} }} "
         + " UNION ".join(branches)
         + f" FILTER(?w != ?seed && {_is_work('?w', profile.work_classes)}) }} LIMIT {int(limit)}"
     )
@@ -840,7 +832,7 @@ def describe(
 
     for number, batch in enumerate(_batches(works)):
         progress.report("Describing works", number * BATCH / max(1, len(works)))
-        subjects = _iris(batch)
+        subjects = iri_list(batch)
         for s, p, o in _rows(
             endpoint, f"SELECT ?s ?p ?o WHERE {{ VALUES ?s {{ {subjects} }} ?s ?p ?o }}"
         ):
@@ -910,8 +902,8 @@ def describe(
         progress.report("Reading labels", 0.5 + 0.4 * number * 4 * BATCH / max(1, len(entities)))
         for s, p, o in _rows(
             endpoint,
-            f"SELECT ?s ?p ?o WHERE {{ VALUES ?s {{ {_iris(batch)} }} ?s ?p ?o . "
-            f"{_one_of('?p', wanted)} FILTER(!isBlank(?o)) }}",
+            f"SELECT ?s ?p ?o WHERE {{ VALUES ?s {{ {iri_list(batch)} }} ?s ?p ?o . "
+            f"{one_of('?p', wanted)} FILTER(!isBlank(?o)) }}",
         ):
             if not (isinstance(s, ox.NamedNode) and isinstance(p, ox.NamedNode) and o):
                 continue
@@ -989,9 +981,9 @@ def full_degrees(
         for batch in _batches(index.works):
             for a, p, b in _rows(
                 endpoint,
-                f"SELECT DISTINCT ?a ?p ?b WHERE {{ VALUES ?x {{ {_iris(batch)} }} "
+                f"SELECT DISTINCT ?a ?p ?b WHERE {{ VALUES ?x {{ {iri_list(batch)} }} "
                 "{ ?x ?p ?b . BIND(?x AS ?a) } UNION { ?a ?p ?x . BIND(?x AS ?b) } "
-                f"{_one_of('?p', link_weight)} "
+                f"{one_of('?p', link_weight)} "
                 f"FILTER(?a != ?b && {_is_work('?a', profile.work_classes)} && "
                 f"{_is_work('?b', profile.work_classes)}) }}",
             ):

@@ -25,6 +25,7 @@ from curator.core.index import Index, WorkRecord
 from curator.core.labels import fold
 from curator.core.profile import Profile
 from curator.core.progress import Progress, silent
+from curator.core.reading import iri_list, sparql_iri
 from curator.core.remote import (
     DEFAULT_CANDIDATES,
     FREQUENCIES_MAX_AGE,
@@ -35,6 +36,7 @@ from curator.core.remote import (
     frequencies_for,
     neighbour_query,
     neighbourhood,
+    one_of,
     run_candidates,
     seed_weights,
     shared_count_query,
@@ -90,7 +92,7 @@ class EndpointWorkspace:
     def class_counts(self) -> dict[str, int]:
         """Works of each work class (asked once)."""
         if self._class_counts is None:
-            classes = " ".join(f"<{c}>" for c in self.profile.work_classes)
+            classes = iri_list(self.profile.work_classes)
             rows = self.endpoint.select(
                 f"SELECT ?c (COUNT(DISTINCT ?w) AS ?n) WHERE {{ VALUES ?c {{ {classes} }} "
                 "?w a ?c } GROUP BY ?c"
@@ -114,8 +116,8 @@ class EndpointWorkspace:
         hits = " + ".join(
             f"IF(CONTAINS(LCASE(STR(?l)), {sparql_string(w)}), {len(w)}, 0)" for w in words
         )
-        labels = " ".join(f"<{p}>" for p in self.profile.label_properties if " " not in p)
-        classes = " ".join(f"<{c}>" for c in self.profile.work_classes)
+        labels = iri_list(p for p in self.profile.label_properties if " " not in p)
+        classes = iri_list(self.profile.work_classes)
         rows = self.endpoint.select(
             f"SELECT ?w (MAX(?hits) AS ?best) WHERE {{ VALUES ?lp {{ {labels} }} ?w ?lp ?l . "
             f"FILTER(isLiteral(?l)) BIND(({hits}) AS ?hits) FILTER(?hits > 0) "
@@ -212,12 +214,11 @@ class EndpointWorkspace:
                 usable.append(_checked(iri))
             except SeedError:
                 continue  # not an IRI at all: certainly not a work here
-        classes = " ".join(f"<{c}>" for c in self.profile.work_classes)
+        kinds = one_of("?c", self.profile.work_classes)
         for start in range(0, len(usable), 100):
-            values = " ".join(f"<{i}>" for i in usable[start : start + 100])
+            values = iri_list(usable[start : start + 100])
             rows = self.endpoint.select(
-                f"SELECT DISTINCT ?w WHERE {{ VALUES ?w {{ {values} }} "
-                f"?w a ?c . FILTER(?c IN ({classes.replace(' ', ', ')})) }}"
+                f"SELECT DISTINCT ?w WHERE {{ VALUES ?w {{ {values} }} ?w a ?c . {kinds} }}"
             )[1]
             for (work,) in rows:
                 if isinstance(work, ox.NamedNode):
@@ -326,8 +327,6 @@ class EndpointWorkspace:
 
 
 def _checked(iri: str) -> str:
-    from curator.core.reading import sparql_iri
-
     try:
         return sparql_iri(iri)
     except ValueError:

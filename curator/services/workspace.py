@@ -203,21 +203,22 @@ def _open_cached(
     hold = cache.hold(key)
     if hold is None:
         return None
+    store = payload = None
+    ready = False
     try:
         progress.report("Opening the saved copy", 0.2)
         store = cache.open_store(key)
-        if store is None:
+        if store is not None:
+            progress.report("Reading the saved index", 0.4)
+            payload = cache.load_index(key)
+        if payload is not None:
+            progress.report("Preparing suggestions", 0.8)
+            ready = True
+    finally:
+        if not ready:  # missing, damaged, or cancelled: the entry is not ours to hold
             hold.release()
-            return None
-        progress.report("Reading the saved index", 0.4)
-        payload = cache.load_index(key)
-        if payload is None:
-            hold.release()
-            return None
-        progress.report("Preparing suggestions", 0.8)
-    except BaseException:
-        hold.release()
-        raise
+    if store is None or payload is None:
+        return None
     files = expand_paths([Path(p) for p in chosen])
     sources = payload.sources
     if len(files) == len(sources):  # the same content may sit under another name now
